@@ -71,9 +71,11 @@ export function decodePayload<T = unknown>(bytes: Uint8Array): T {
         const Ctor = CONSTRUCTORS[ref.$typed];
         if (!Ctor) throw new Error(`decodePayload: unknown array type ${ref.$typed}`);
         const byteLength = ref.length * Ctor.BYTES_PER_ELEMENT;
-        const start = bytes.byteOffset + dataStart + ref.offset;
-        if (dataStart + ref.offset + byteLength > bytes.byteLength) throw new Error('decodePayload: array runs past the end');
-        return new Ctor(bytes.buffer.slice(start, start + byteLength));
+        const start = dataStart + ref.offset;
+        if (start + byteLength > bytes.byteLength) throw new Error('decodePayload: array runs past the end');
+        const copy = new Uint8Array(byteLength);
+        copy.set(bytes.subarray(start, start + byteLength));
+        return new Ctor(copy.buffer);
       }
       if (typeof obj.$num === 'string' && Object.keys(obj).length === 1) return Number(obj.$num);
       const out: Record<string, unknown> = {};

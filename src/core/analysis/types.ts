@@ -93,6 +93,8 @@ export interface FlaggedDie {
   /** Index of the die in its wafer frame, for linking views. */
   index: number;
   reasons: Reason[];
+  /** Every parameter's value at this die, SI base units with the raw sign (null when missing). */
+  values: Record<string, number | null>;
 }
 
 export interface AnalysisSettings {

@@ -1,0 +1,61 @@
+// The desktop shell: one window showing the built renderer from the app:// custom protocol, the
+// service behind IPC, heavy work in worker threads. Started by `npm start` where Electron exists.
+
+import { app, BrowserWindow, Menu, net, protocol, dialog, type WebContents } from 'electron';
+import { join, normalize, sep } from 'node:path';
+import { mkdirSync } from 'node:fs';
+import { pathToFileURL } from 'node:url';
+import { OffstateService } from '../src/node/service';
+import { demoLotPath, projectRoot, uiDir } from '../src/node/paths';
+import { registerIpc } from './ipc';
+import { APP_SCHEME, hardenContents, hardenSession, secureWebPreferences } from './security';
+
+protocol.registerSchemesAsPrivileged([{ scheme: APP_SCHEME, privileges: { standard: true, secure: true, supportFetchAPI: true } }]);
+
+if (!app.requestSingleInstanceLock()) app.quit();
+
+let mainWindow: BrowserWindow | undefined;
+const contents = (): WebContents | undefined => mainWindow?.webContents;
+
+async function start(): Promise<void> {
+  hardenSession();
+  const root = uiDir();
+  protocol.handle(APP_SCHEME, (request) => {
+    const url = new URL(request.url);
+    const relative = url.pathname === '/' ? 'index.html' : decodeURIComponent(url.pathname.slice(1));
+    const file = normalize(join(root, relative));
+    if (url.host !== 'app' || !file.startsWith(root + sep)) return new Response('Not found', { status: 404 });
+    return net.fetch(pathToFileURL(file).href);
+  });
+  const dataDir = join(app.getPath('userData'));
+  mkdirSync(dataDir, { recursive: true });
+  const dbPath = process.env.OFFSTATE_DB ?? join(dataDir, 'offstate.sqlite');
+  const service = new OffstateService({
+    dbPath,
+    mode: 'desktop',
+    workerUrl: pathToFileURL(join(projectRoot(), 'dist', 'node', 'worker.mjs')),
+    nativeBinding: process.env.OFFSTATE_SQLITE_BINDING,
+  });
+  registerIpc(service, contents);
+  if (process.argv.includes('--demo')) {
+    await service.importFile(demoLotPath()).catch((error: Error) => dialog.showErrorBox('Offstate', error.message));
+  }
+  Menu.setApplicationMenu(Menu.buildFromTemplate([
+    { role: 'fileMenu' }, { role: 'editMenu' }, { role: 'viewMenu' }, { role: 'windowMenu' },
+  ]));
+  mainWindow = new BrowserWindow({
+    width: 1500, height: 950, title: 'Offstate', show: false,
+    webPreferences: secureWebPreferences(join(projectRoot(), 'dist', 'electron', 'preload.cjs')),
+  });
+  hardenContents(mainWindow.webContents);
+  mainWindow.once('ready-to-show', () => mainWindow?.show());
+  await mainWindow.loadURL(`${APP_SCHEME}://app/index.html`);
+  app.on('window-all-closed', () => { service.close(); app.quit(); });
+}
+
+app.on('web-contents-created', (_event, wc) => hardenContents(wc));
+app.on('second-instance', () => { mainWindow?.focus(); });
+app.whenReady().then(start).catch((error: Error) => {
+  dialog.showErrorBox('Offstate could not start', error.message);
+  app.quit();
+});

@@ -1,0 +1,64 @@
+// The `analyze --json` contract: per wafer, the identifiers as written, die count, per-parameter
+// statistics and the reported probe-site biases; one flagged entry per die with all its reasons.
+// Fields not computed yet (pattern, mechanism) are left out, not filled with placeholders.
+
+import type { LotAnalysis, ParamSummary, Reason } from './types';
+import { reasonText } from './reasonText';
+
+export interface JsonParam {
+  unit: string;
+  n: number;
+  median: number;
+  mean: number;
+  sigma: number | null;
+  robustSigma: number;
+  q1: number;
+  q3: number;
+  log10?: Omit<JsonParam, 'unit' | 'log10'>;
+}
+
+export interface JsonReport {
+  method: string;
+  wafers: {
+    lot: string;
+    wafer: string;
+    dies: number;
+    params: Record<string, JsonParam>;
+    siteBias: { param: string; site: number; shift: number; p: number }[];
+  }[];
+  flagged: {
+    lot: string;
+    wafer: string;
+    x: number;
+    y: number;
+    site: number | null;
+    reasons: (Reason & { text: string })[];
+    values: Record<string, number | null>;
+  }[];
+}
+
+function jsonParam(s: ParamSummary): JsonParam {
+  const core = (v: Omit<ParamSummary, 'unit' | 'log10'>) => ({
+    n: v.n, median: v.median, mean: v.mean, sigma: Number.isFinite(v.sigma) ? v.sigma : null,
+    robustSigma: v.robustSigma, q1: v.q1, q3: v.q3,
+  });
+  return { unit: s.unit, ...core(s), ...(s.log10 ? { log10: core(s.log10) } : {}) };
+}
+
+export function jsonReport(analysis: LotAnalysis): JsonReport {
+  return {
+    method: analysis.method,
+    wafers: analysis.wafers.map((w) => ({
+      lot: w.lot,
+      wafer: w.wafer,
+      dies: w.dies,
+      params: Object.fromEntries(Object.entries(w.params).map(([k, v]) => [k, jsonParam(v)])),
+      siteBias: w.siteBias.map((b) => ({ param: b.param, site: b.site, shift: b.shift, p: b.p })),
+    })),
+    flagged: analysis.flagged.map((d) => ({
+      lot: d.lot, wafer: d.wafer, x: d.x, y: d.y, site: d.site < 0 ? null : d.site,
+      reasons: d.reasons.map((r) => ({ ...r, text: reasonText(r) })),
+      values: d.values,
+    })),
+  };
+}

@@ -1,0 +1,3 @@
+// Front door of the exports.
+export { csvField, csvLine } from './csv';
+export { flaggedCsv, FLAGGED_CSV_CAUTION } from './flaggedCsv';

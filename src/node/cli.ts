@@ -1,0 +1,181 @@
+// The command line: import files, analyse files or databases (with a JSON contract for other
+// tools), serve the local browser mode, and write the demo lot.
+
+import { parseArgs } from 'node:util';
+import { mkdirSync, openSync, readSync, closeSync, existsSync } from 'node:fs';
+import { dirname, resolve } from 'node:path';
+import { jsonReport, reasonText, type LotAnalysis } from '../core/analysis';
+import { openDatabase, type Db } from './store/database';
+import { listLots } from './store/repository';
+import { importDelimitedFile } from './importDelimited';
+import { analyzeStoredLot } from './analysisStore';
+import { OffstateService } from './service';
+import { startServer } from './server';
+import { defaultDatabasePath, demoLotPath, uiDir } from './paths';
+import { VERSION } from './version';
+import { formatDuration, progressLine } from './progressText';
+
+const HELP = `Offstate ${VERSION}: per-die leakage triage
+
+Usage:
+  offstate import FILE... [--db PATH]          store per-die CSV/TSV files (one transaction per file)
+  offstate analyze FILE... [--json] [--db PATH] analyse data files or an Offstate database
+  offstate serve [--db PATH] [--port N] [--demo] start the local browser mode on 127.0.0.1
+  offstate generate-demo [--out DIR] [--seed N] write the invented demo lot (CSV + truth JSON)
+
+Default database: ${defaultDatabasePath()} (set OFFSTATE_DB or --db to change).
+Flags are statistical evidence, not a disposition: scrapping or shipping follows your fab's procedures.`;
+
+function isSqliteFile(path: string): boolean {
+  const fd = openSync(path, 'r');
+  try {
+    const head = Buffer.alloc(16);
+    const n = readSync(fd, head, 0, 16, 0);
+    return n === 16 && head.toString('latin1') === 'SQLite format 3\u0000';
+  } finally {
+    closeSync(fd);
+  }
+}
+
+function openUserDb(path: string | undefined): { db: Db; path: string } {
+  const dbPath = resolve(path ?? defaultDatabasePath());
+  mkdirSync(dirname(dbPath), { recursive: true });
+  return { db: openDatabase(dbPath), path: dbPath };
+}
+
+async function importCommand(files: string[], dbOption: string | undefined, out: NodeJS.WriteStream): Promise<number> {
+  if (files.length === 0) { process.stderr.write('offstate import: name at least one file.\n'); return 2; }
+  const { db, path } = openUserDb(dbOption);
+  let failures = 0;
+  try {
+    for (const file of files) {
+      const started = performance.now();
+      try {
+        const result = await importDelimitedFile(db, file, {
+          onProgress: (p) => { if (process.stderr.isTTY) process.stderr.write(`\r${progressLine(p.bytesDone, p.bytesTotal, (performance.now() - started) / 1000)}`); },
+        });
+        if (process.stderr.isTTY) process.stderr.write('\r\x1b[K');
+        if (result.status === 'already-imported') {
+          out.write(`${file}: already imported; nothing changed.\n`);
+        } else {
+          out.write(`${file}: imported ${result.rows} rows into ${result.wafers} wafer(s) of lot ${result.lots.join(', ')}` +
+            `${result.rejected ? `, ${result.rejected} rejected` : ''} in ${formatDuration(result.seconds)} -> ${path}\n`);
+        }
+        for (const m of result.status === 'imported' ? result.messages : []) out.write(`  ${m}\n`);
+      } catch (error) {
+        failures++;
+        process.stderr.write(`${file}: ${(error as Error).message}\n`);
+      }
+    }
+  } finally {
+    db.close();
+  }
+  return failures > 0 ? 1 : 0;
+}
+
+function mergeAnalyses(analyses: LotAnalysis[]): LotAnalysis {
+  return {
+    settings: analyses[0].settings,
+    method: analyses[0].method,
+    wafers: analyses.flatMap((a) => a.wafers),
+    lots: analyses.flatMap((a) => a.lots),
+    flagged: analyses.flatMap((a) => a.flagged),
+  };
+}
+
+async function analyzeCommand(files: string[], json: boolean, dbOption: string | undefined, out: NodeJS.WriteStream): Promise<number> {
+  const sources = files.length > 0 ? files : [dbOption ?? defaultDatabasePath()];
+  const analyses: LotAnalysis[] = [];
+  const scratch = openDatabase(':memory:');
+  let scratchUsed = false;
+  try {
+    for (const file of sources) {
+      if (!existsSync(file)) { process.stderr.write(`offstate analyze: ${file} does not exist.\n`); return 2; }
+      if (isSqliteFile(file)) {
+        const db = openDatabase(file, { readonly: true });
+        try {
+          for (const lot of listLots(db)) analyses.push(analyzeStoredLot(db, lot.lot));
+        } finally {
+          db.close();
+        }
+      } else {
+        const result = await importDelimitedFile(scratch, file);
+        if (result.status === 'imported') {
+          scratchUsed = true;
+          if (result.rejected > 0 && !json) process.stderr.write(`${file}: ${result.rejected} rows rejected (first: ${result.messages[0] ?? ''})\n`);
+        }
+      }
+    }
+    if (scratchUsed) for (const lot of listLots(scratch)) analyses.push(analyzeStoredLot(scratch, lot.lot));
+  } catch (error) {
+    process.stderr.write(`offstate analyze: ${(error as Error).message}\n`);
+    return 1;
+  } finally {
+    scratch.close();
+  }
+  if (analyses.length === 0) { process.stderr.write('offstate analyze: no lots found.\n'); return 1; }
+  const merged = mergeAnalyses(analyses);
+  if (json) {
+    out.write(JSON.stringify(jsonReport(merged)) + '\n');
+    return 0;
+  }
+  out.write(`Method: ${merged.method}\n`);
+  out.write('Flags are statistical evidence, not a disposition.\n\n');
+  for (const w of merged.wafers) {
+    const bias = w.siteBias.map((b) => `site ${b.site} ${b.param} ${(b.shift * 100).toFixed(1)}%`).join(', ');
+    out.write(`${w.lot} wafer ${w.wafer}: ${w.dies} dies, ${w.flaggedCount} flagged${bias ? `; site bias: ${bias}` : ''}\n`);
+  }
+  out.write(`\n${merged.flagged.length} flagged dies\n`);
+  for (const d of merged.flagged.slice(0, 50)) {
+    out.write(`  ${d.lot} ${d.wafer} (${d.x},${d.y}) site ${d.site}: ${d.reasons.map(reasonText).join('; ')}\n`);
+  }
+  if (merged.flagged.length > 50) out.write(`  ... ${merged.flagged.length - 50} more (use --json)\n`);
+  return 0;
+}
+
+async function serveCommand(dbOption: string | undefined, port: number, demo: boolean): Promise<number> {
+  const dbPath = resolve(dbOption ?? defaultDatabasePath());
+  mkdirSync(dirname(dbPath), { recursive: true });
+  const service = new OffstateService({ dbPath, mode: 'browser', workerUrl: new URL('./worker.mjs', import.meta.url) });
+  if (demo) {
+    const result = await service.importFile(demoLotPath());
+    process.stdout.write(result.status === 'imported' ? `Demo lot imported into ${dbPath}.\n` : `Demo lot already in ${dbPath}.\n`);
+  }
+  const running = await startServer({ service, uiDir: uiDir(), port });
+  process.stdout.write(`Offstate browser mode: ${running.url}\n`);
+  const stop = () => { void running.close().then(() => { service.close(); process.exit(0); }); };
+  process.on('SIGINT', stop);
+  process.on('SIGTERM', stop);
+  return new Promise<number>(() => undefined);
+}
+
+async function generateDemoCommand(outDir: string, seed: number | undefined): Promise<number> {
+  const { writeDemoLot } = await import('./demo');
+  const { DEMO_LOT_OPTIONS } = await import('../core/generator');
+  const written = writeDemoLot(resolve(outDir), seed === undefined ? DEMO_LOT_OPTIONS : { ...DEMO_LOT_OPTIONS, seed });
+  process.stdout.write(`Wrote ${Object.values(written).join(', ')}\n`);
+  return 0;
+}
+
+export async function main(argv: string[], out: NodeJS.WriteStream = process.stdout): Promise<number> {
+  const { values, positionals } = parseArgs({
+    args: argv,
+    allowPositionals: true,
+    options: {
+      db: { type: 'string' }, json: { type: 'boolean' }, port: { type: 'string' }, demo: { type: 'boolean' },
+      out: { type: 'string' }, seed: { type: 'string' }, help: { type: 'boolean', short: 'h' }, version: { type: 'boolean' },
+    },
+  });
+  const [command, ...rest] = positionals;
+  if (values.version) { out.write(`${VERSION}\n`); return 0; }
+  if (values.help || !command) { out.write(HELP + '\n'); return command || values.help ? 0 : 2; }
+  switch (command) {
+    case 'import': return importCommand(rest, values.db, out);
+    case 'analyze': return analyzeCommand(rest, values.json ?? false, values.db, out);
+    case 'serve': return serveCommand(values.db, Number(values.port ?? 0), values.demo ?? false);
+    case 'generate-demo': return generateDemoCommand(values.out ?? 'sample-data', values.seed === undefined ? undefined : Number(values.seed));
+    default:
+      process.stderr.write(`offstate: unknown command "${command}".\n\n${HELP}\n`);
+      return 2;
+  }
+}

@@ -1,0 +1,148 @@
+// The Node-side implementation of the API contract. Both transports (Electron IPC and the local
+// browser mode) wrap one instance; neither computes anything itself.
+
+import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { basename, join } from 'node:path';
+import { randomUUID } from 'node:crypto';
+import { magnitudes } from '../core/analysis';
+import { flaggedCsv } from '../core/export';
+import { median } from '../core/stats';
+import type { AppInfo, ImportResult, LotAnalysis, LotSummary, OffstateApi, ProgressEvent, WaferFrame, WaferSummary } from '../shared/api';
+import { openDatabase, type Db } from './store/database';
+import { listLots, listWaferNames, loadWafer, NotFoundError } from './store/repository';
+import { importDelimitedFile } from './importDelimited';
+import { analyzeStoredLot } from './analysisStore';
+import { runInWorker, type RunningJob } from './jobs';
+import { VERSION } from './version';
+
+export interface ServiceOptions {
+  dbPath: string;
+  mode: AppInfo['mode'];
+  /** Worker script for long jobs; without it jobs run in this thread (tests, small tools). */
+  workerUrl?: URL;
+  nativeBinding?: string;
+}
+
+export class OffstateService implements OffstateApi {
+  private readonly db: Db;
+  private readonly listeners = new Set<(event: ProgressEvent) => void>();
+  private readonly jobs = new Map<string, { cancel(): void }>();
+  private readonly analysisCache = new Map<string, { version: number; result: Promise<LotAnalysis> }>();
+  /** Bumped by every import, so cached analyses of changed lots are recomputed. */
+  private dataVersion = 0;
+
+  constructor(private readonly options: ServiceOptions) {
+    this.db = openDatabase(options.dbPath, { nativeBinding: options.nativeBinding });
+  }
+
+  close(): void {
+    for (const job of this.jobs.values()) job.cancel();
+    this.db.close();
+  }
+
+  private emit(event: ProgressEvent): void {
+    for (const listener of this.listeners) listener(event);
+  }
+
+  onProgress(listener: (event: ProgressEvent) => void): () => void {
+    this.listeners.add(listener);
+    return () => this.listeners.delete(listener);
+  }
+
+  async getInfo(): Promise<AppInfo> {
+    return { version: VERSION, mode: this.options.mode, database: this.options.dbPath };
+  }
+
+  async listLots(): Promise<LotSummary[]> {
+    return listLots(this.db);
+  }
+
+  async listWafers(lot: string): Promise<WaferSummary[]> {
+    const names = listWaferNames(this.db, lot);
+    if (names.length === 0) throw new NotFoundError(`No lot ${lot} in this database.`);
+    return names.map((wafer) => {
+      const frame = loadWafer(this.db, lot, wafer);
+      const medians: Record<string, number | null> = {};
+      for (const p of frame.params) medians[p.name] = median(magnitudes(frame.values[p.name], p.unit)) ?? null;
+      return { lot, wafer, dies: frame.x.length, medians };
+    });
+  }
+
+  async getWafer(lot: string, wafer: string): Promise<WaferFrame> {
+    return loadWafer(this.db, lot, wafer);
+  }
+
+  private track<T>(kind: ProgressEvent['kind'], unit: ProgressEvent['unit'], start: (report: (done: number, total: number) => void) => RunningJob<T>): Promise<T> {
+    const jobId = randomUUID();
+    const base = { jobId, kind, unit };
+    this.emit({ ...base, phase: 'start', done: 0, total: 0 });
+    const job = start((done, total) => this.emit({ ...base, phase: 'progress', done, total }));
+    this.jobs.set(jobId, job);
+    return job.promise.then(
+      (result) => { this.jobs.delete(jobId); this.emit({ ...base, phase: 'done', done: 1, total: 1 }); return result; },
+      (error: Error) => {
+        this.jobs.delete(jobId);
+        const phase = error.name === 'CancelledError' ? 'cancelled' : 'error';
+        this.emit({ ...base, phase, done: 0, total: 0, message: error.message });
+        throw error;
+      },
+    );
+  }
+
+  private inThread<T>(work: (signal: AbortSignal, report: (done: number, total: number) => void) => Promise<T> | T) {
+    return (report: (done: number, total: number) => void): RunningJob<T> => {
+      const controller = new AbortController();
+      return { promise: Promise.resolve().then(() => work(controller.signal, report)), cancel: () => controller.abort() };
+    };
+  }
+
+  async importFile(path: string, fileName = basename(path)): Promise<ImportResult> {
+    const { workerUrl, dbPath, nativeBinding } = this.options;
+    const result = await this.track<ImportResult>('import', 'bytes', workerUrl
+      ? (report) => runInWorker<ImportResult>(workerUrl, { task: 'import', dbPath, path, fileName, nativeBinding }, report)
+      : this.inThread((signal, report) => importDelimitedFile(this.db, path, { fileName, signal, onProgress: (p) => report(p.bytesDone, p.bytesTotal) })));
+    if (result.status === 'imported') { this.dataVersion++; this.analysisCache.clear(); }
+    return result;
+  }
+
+  async importBytes(name: string, data: Uint8Array): Promise<ImportResult> {
+    const dir = mkdtempSync(join(tmpdir(), 'offstate-upload-'));
+    const safeName = basename(name).replace(/[^\w.\- ]+/g, '_') || 'upload.csv';
+    const path = join(dir, safeName);
+    try {
+      writeFileSync(path, data);
+      return await this.importFile(path, safeName);
+    } finally {
+      rmSync(dir, { recursive: true, force: true });
+    }
+  }
+
+  async analyzeLot(lot: string): Promise<LotAnalysis> {
+    const cached = this.analysisCache.get(lot);
+    if (cached && cached.version === this.dataVersion) return cached.result;
+    const { workerUrl, dbPath, nativeBinding } = this.options;
+    const result = this.track<LotAnalysis>('analysis', 'wafers', workerUrl
+      ? (report) => runInWorker<LotAnalysis>(workerUrl, { task: 'analyze', dbPath, lot, nativeBinding }, report)
+      : this.inThread((_signal, report) => analyzeStoredLot(this.db, lot, report)));
+    this.analysisCache.set(lot, { version: this.dataVersion, result });
+    result.catch(() => this.analysisCache.delete(lot));
+    return result;
+  }
+
+  async exportFlaggedCsv(lot: string): Promise<string> {
+    const analysis = await this.analyzeLot(lot);
+    const summary = listLots(this.db).find((l) => l.lot === lot);
+    if (!summary) throw new NotFoundError(`No lot ${lot} in this database.`);
+    return flaggedCsv(analysis, summary.params);
+  }
+
+  async cancelJob(jobId: string): Promise<void> {
+    this.jobs.get(jobId)?.cancel();
+  }
+}
+
+/** Writes text to a path, refusing to overwrite an existing file unless told to. */
+export function writeNewFile(path: string, text: string, overwrite = false): void {
+  writeFileSync(path, text, { flag: overwrite ? 'w' : 'wx' });
+}
