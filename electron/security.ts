@@ -2,38 +2,10 @@
 // sandboxed renderer with no Node, a strict Content-Security-Policy, no navigation, no new
 // windows, no permissions, and external links only to an allow-list.
 
-import { session, shell, type WebContents, type WebPreferences } from 'electron';
+import { session, shell, type WebContents } from 'electron';
 
-export const APP_SCHEME = 'offstate';
-export const APP_ORIGIN = `${APP_SCHEME}://app`;
-
-export const CONTENT_SECURITY_POLICY = [
-  "default-src 'self'", "script-src 'self'", "style-src 'self'", "img-src 'self' data: blob:",
-  "connect-src 'self'", "font-src 'self'", "object-src 'none'", "base-uri 'none'", "form-action 'none'", "frame-ancestors 'none'",
-].join('; ');
-
-export function secureWebPreferences(preload: string): WebPreferences {
-  return {
-    preload,
-    contextIsolation: true,
-    sandbox: true,
-    nodeIntegration: false,
-    nodeIntegrationInWorker: false,
-    nodeIntegrationInSubFrames: false,
-    webSecurity: true,
-    allowRunningInsecureContent: false,
-    experimentalFeatures: false,
-    webviewTag: false,
-    navigateOnDragDrop: false,
-    spellcheck: false,
-  };
-}
-
-const EXTERNAL_ALLOWED = [/^https:\/\/www\.jedec\.org\//, /^https:\/\/www\.aecouncil\.com\//];
-
-export function isAllowedExternal(url: string): boolean {
-  return EXTERNAL_ALLOWED.some((pattern) => pattern.test(url));
-}
+export { APP_SCHEME, APP_ORIGIN, CONTENT_SECURITY_POLICY, secureWebPreferences, isAllowedExternal } from './policy';
+import { APP_ORIGIN, CONTENT_SECURITY_POLICY, isAllowedExternal } from './policy';
 
 /** Applies session-wide rules: CSP on every response, every permission request denied. */
 export function hardenSession(): void {

@@ -12,12 +12,10 @@ import { pipeline } from 'node:stream/promises';
 import { encodePayload } from '../shared/codec';
 import { API_METHODS, type OffstateApi } from '../shared/api';
 import { validateArgs } from '../shared/validate';
+import { CONTENT_SECURITY_POLICY } from '../shared/csp';
 import type { OffstateService } from './service';
 
-export const CONTENT_SECURITY_POLICY = [
-  "default-src 'self'", "script-src 'self'", "style-src 'self'", "img-src 'self' data: blob:",
-  "connect-src 'self'", "font-src 'self'", "object-src 'none'", "base-uri 'none'", "form-action 'none'", "frame-ancestors 'none'",
-].join('; ');
+export { CONTENT_SECURITY_POLICY };
 
 const MIME: Record<string, string> = {
   '.html': 'text/html; charset=utf-8', '.js': 'text/javascript; charset=utf-8', '.css': 'text/css; charset=utf-8',

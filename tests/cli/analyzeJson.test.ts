@@ -1,0 +1,132 @@
+// The CLI's `analyze --json` on the demo lot, checked against an independent computation in
+// this test: its own CSV reading and unit table, simple-statistics (npm) for median, mean, sample
+// standard deviation and the Wilcoxon rank sum, and quartiles by the Hyndman & Fan (1996) type 7
+// definition written out here on a full sort.
+import { beforeAll, describe, expect, it } from 'vitest';
+import { execFileSync } from 'node:child_process';
+import { existsSync, readFileSync } from 'node:fs';
+import { join } from 'node:path';
+import * as ss from 'simple-statistics';
+import { DEMO_CSV, ROOT } from '../support/paths';
+
+// SI prefixes (SI Brochure, 9th ed.).
+const PREFIX: Record<string, number> = { '': 1, m: 1e-3, u: 1e-6, n: 1e-9, p: 1e-12, f: 1e-15 };
+
+function type7(sorted: number[], p: number): number {
+  const h = (sorted.length - 1) * p;
+  const lo = Math.floor(h);
+  return sorted[lo] + (h - lo) * ((sorted[Math.min(lo + 1, sorted.length - 1)]) - sorted[lo]);
+}
+
+interface Column { name: string; unit: string; scale: number }
+function readDemo() {
+  const lines = readFileSync(DEMO_CSV, 'utf8').split(/\r?\n/).filter((l) => l && !l.startsWith('#'));
+  const header = lines[0].split(',');
+  const columns: Column[] = header.slice(5).map((h) => {
+    const m = /^(\w+)\s*[[(]\s*([munpf]?)([AV])\s*[\])]$/i.exec(h.trim())!;
+    const name = m[1].replace(/^(\w)(\w*)_(\w)$/, (_a, f: string, rest: string, d: string) => f.toUpperCase() + rest.toLowerCase() + '_' + d.toLowerCase());
+    return { name: name === 'ISB' || name.toLowerCase() === 'isb' ? 'Isb' : name, unit: m[3].toUpperCase(), scale: PREFIX[m[2].toLowerCase()] };
+  });
+  const wafers = new Map<string, { lot: string; wafer: string; x: number[]; y: number[]; site: number[]; values: number[][] }>();
+  for (const line of lines.slice(1)) {
+    const f = line.split(',');
+    const key = `${f[0]}|${f[1]}`;
+    let w = wafers.get(key);
+    if (!w) { w = { lot: f[0], wafer: f[1], x: [], y: [], site: [], values: columns.map(() => []) }; wafers.set(key, w); }
+    w.x.push(Number(f[2])); w.y.push(Number(f[3])); w.site.push(Number(f[4]));
+    columns.forEach((c, i) => w!.values[i].push(Number(f[5 + i]) * c.scale));
+  }
+  return { columns, wafers: [...wafers.values()] };
+}
+
+const relClose = (a: number, b: number, tol = 1e-9) => Math.abs(a - b) <= tol * Math.max(Math.abs(a), Math.abs(b), 1e-300);
+
+let report: { wafers: any[]; flagged: any[] };
+let demo: ReturnType<typeof readDemo>;
+
+beforeAll(() => {
+  demo = readDemo();
+  const out = execFileSync(process.execPath, [join(ROOT, 'bin', 'offstate.mjs'), 'analyze', DEMO_CSV, '--json'], { encoding: 'utf8', maxBuffer: 256 << 20 });
+  report = JSON.parse(out);
+}, 120_000);
+
+describe.skipIf(!existsSync(DEMO_CSV))('offstate analyze --json on the demo lot', () => {
+  it('lists every wafer with its identifiers as written and its die count', () => {
+    expect(report.wafers.map((w) => `${w.lot}|${w.wafer}`).sort()).toEqual(demo.wafers.map((w) => `${w.lot}|${w.wafer}`).sort());
+    for (const w of demo.wafers) expect(report.wafers.find((r) => r.wafer === w.wafer && r.lot === w.lot).dies).toBe(w.x.length);
+  });
+
+  it('matches independent per-wafer statistics for every parameter (magnitudes and log10 for currents)', () => {
+    let checked = 0;
+    for (const w of demo.wafers) {
+      const out = report.wafers.find((r) => r.wafer === w.wafer && r.lot === w.lot);
+      demo.columns.forEach((c, i) => {
+        const values = w.values[i].filter(Number.isFinite).map((v) => (c.unit === 'A' ? Math.abs(v) : v));
+        const sorted = [...values].sort((a, b) => a - b);
+        const p = out.params[c.name];
+        expect(p.unit).toBe(c.unit);
+        expect(p.n).toBe(values.length);
+        expect(relClose(p.median, ss.median(values))).toBe(true);
+        expect(relClose(p.mean, ss.mean(values), 1e-12)).toBe(true);
+        expect(relClose(p.sigma, ss.sampleStandardDeviation(values), 1e-9)).toBe(true);
+        expect(relClose(p.q1, type7(sorted, 0.25))).toBe(true);
+        expect(relClose(p.q3, type7(sorted, 0.75))).toBe(true);
+        expect(relClose(p.robustSigma, (type7(sorted, 0.75) - type7(sorted, 0.25)) / 1.349)).toBe(true);
+        if (c.unit === 'A') {
+          const logs = values.filter((v) => v > 0).map(Math.log10);
+          expect(relClose(p.log10.median, ss.median(logs))).toBe(true);
+          expect(relClose(p.log10.sigma, ss.sampleStandardDeviation(logs), 1e-9)).toBe(true);
+        }
+        checked++;
+      });
+    }
+    expect(checked).toBe(demo.wafers.length * demo.columns.length);
+  });
+
+  it('flags exactly the dies an independent robust z (|z| > 6, log10 for currents) flags, one entry per die', () => {
+    const expected = new Set<string>();
+    for (const w of demo.wafers) {
+      demo.columns.forEach((c, i) => {
+        const scaleValues = w.values[i].map((v) => (c.unit === 'A' ? (Math.abs(v) > 0 ? Math.log10(Math.abs(v)) : NaN) : v));
+        const sorted = scaleValues.filter(Number.isFinite).sort((a, b) => a - b);
+        const med = type7(sorted, 0.5);
+        const sigma = (type7(sorted, 0.75) - type7(sorted, 0.25)) / 1.349;
+        scaleValues.forEach((v, d) => { if (Number.isFinite(v) && Math.abs((v - med) / sigma) > 6) expected.add(`${w.lot}|${w.wafer}|${w.x[d]}|${w.y[d]}`); });
+      });
+    }
+    const got = report.flagged.map((f) => `${f.lot}|${f.wafer}|${f.x}|${f.y}`);
+    expect(new Set(got).size).toBe(got.length);
+    expect(new Set(got)).toEqual(expected);
+    expect(expected.size).toBeGreaterThan(0);
+    for (const f of report.flagged) {
+      expect(f.reasons.length).toBeGreaterThan(0);
+      expect(f).not.toHaveProperty('mechanism');
+    }
+  });
+
+  it('reports site bias where the medians differ by 5 % or more and the rank-sum test is significant', () => {
+    // Normal approximation of the Wilcoxon rank sum (no tie correction: the demo values are continuous).
+    let agreeing = 0;
+    for (const w of demo.wafers) {
+      const out = report.wafers.find((r) => r.wafer === w.wafer && r.lot === w.lot);
+      const sites = [...new Set(w.site)].sort((a, b) => a - b);
+      demo.columns.forEach((c, i) => {
+        const mag = w.values[i].map((v) => (c.unit === 'A' ? Math.abs(v) : v));
+        for (const s of sites) {
+          const a = mag.filter((v, d) => w.site[d] === s && Number.isFinite(v));
+          const b = mag.filter((v, d) => w.site[d] !== s && Number.isFinite(v));
+          const shift = (ss.median(a) - ss.median(b)) / ss.median(b);
+          const n1 = a.length; const n2 = b.length;
+          const r = ss.wilcoxonRankSum(a, b);
+          const z = (r - n1 * (n1 + n2 + 1) / 2) / Math.sqrt(n1 * n2 * (n1 + n2 + 1) / 12);
+          const listed = out.siteBias.find((e: any) => e.param === c.name && e.site === s);
+          const clearYes = Math.abs(shift) >= 0.055 && Math.abs(z) > 3.6;
+          const clearNo = Math.abs(shift) < 0.045 || Math.abs(z) < 3.0;
+          if (clearYes) { expect(listed, `${w.wafer} ${c.name} site ${s}`).toBeDefined(); expect(relClose(listed.shift, shift, 1e-9)).toBe(true); agreeing++; }
+          if (clearNo) expect(listed, `${w.wafer} ${c.name} site ${s}`).toBeUndefined();
+        }
+      });
+    }
+    expect(agreeing).toBeGreaterThan(0);
+  });
+});
