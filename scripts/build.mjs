@@ -12,7 +12,7 @@ const started = performance.now();
 
 const common = { bundle: true, platform: 'node', target: 'node20', sourcemap: true, packages: 'external', logLevel: 'warning', absWorkingDir: root };
 await Promise.all([
-  build({ ...common, format: 'esm', entryPoints: { cli: 'src/node/cliEntry.ts', worker: 'src/node/worker.ts' }, outdir: 'dist/node', outExtension: { '.js': '.mjs' } }),
+  build({ ...common, format: 'esm', entryPoints: { cli: 'src/node/cliEntry.ts', worker: 'src/node/worker.ts', server: 'src/node/serverEntry.ts' }, outdir: 'dist/node', outExtension: { '.js': '.mjs' } }),
   build({ ...common, format: 'esm', entryPoints: { main: 'electron/main.ts' }, outdir: 'dist/electron', outExtension: { '.js': '.mjs' }, external: ['electron'] }),
   // A sandboxed preload may require only Electron's renderer modules: bundle it as CommonJS.
   build({ ...common, format: 'cjs', packages: undefined, entryPoints: { preload: 'electron/preload.ts' }, outdir: 'dist/electron', outExtension: { '.js': '.cjs' }, external: ['electron'] }),

@@ -153,7 +153,7 @@ async function generateDemoCommand(outDir: string, seed: number | undefined): Pr
   const { writeDemoLot } = await import('./demo');
   const { DEMO_LOT_OPTIONS } = await import('../core/generator');
   const written = writeDemoLot(resolve(outDir), seed === undefined ? DEMO_LOT_OPTIONS : { ...DEMO_LOT_OPTIONS, seed });
-  process.stdout.write(`Wrote ${Object.values(written).join(', ')}\n`);
+  process.stdout.write(`Wrote ${written.csv} (${written.rows} rows, ${written.diesPerWafer} dies per wafer) and ${written.truth}\n`);
   return 0;
 }
 
