@@ -40,8 +40,20 @@ async function start(): Promise<void> {
   if (process.argv.includes('--demo')) {
     await service.importFile(demoLotPath()).catch((error: Error) => dialog.showErrorBox('Offstate', error.message));
   }
+  const importChosen = async () => {
+    const choice = await dialog.showOpenDialog({
+      title: 'Import per-die measurements',
+      properties: ['openFile', 'multiSelections'],
+      filters: [{ name: 'Per-die data', extensions: ['csv', 'tsv', 'txt'] }, { name: 'All files', extensions: ['*'] }],
+    });
+    for (const path of choice.canceled ? [] : choice.filePaths) {
+      // The view refreshes on the import job's "done" progress event.
+      await service.importFile(path).catch((error: Error) => dialog.showErrorBox('Import failed', error.message));
+    }
+  };
   Menu.setApplicationMenu(Menu.buildFromTemplate([
-    { role: 'fileMenu' }, { role: 'editMenu' }, { role: 'viewMenu' }, { role: 'windowMenu' },
+    { label: 'File', submenu: [{ label: 'Import…', accelerator: 'CmdOrCtrl+O', click: () => void importChosen() }, { type: 'separator' }, { role: 'quit' }] },
+    { role: 'editMenu' }, { role: 'viewMenu' }, { role: 'windowMenu' },
   ]));
   mainWindow = new BrowserWindow({
     width: 1500, height: 950, title: 'Offstate', show: false,
