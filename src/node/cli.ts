@@ -13,6 +13,8 @@ import { OffstateService } from './service';
 import { startServer } from './server';
 import { defaultDatabasePath, demoLotPath, uiDir } from './paths';
 import { VERSION } from './version';
+import { flaggedCsv, safeFileName } from '../core/export';
+import { writeNewFile } from './files';
 import { formatDuration, progressLine } from './progressText';
 
 const HELP = `Offstate ${VERSION}: per-die leakage triage
@@ -21,6 +23,8 @@ Usage:
   offstate import FILE... [--db PATH]          store per-die CSV/TSV files (one transaction per file)
   offstate analyze FILE... [--json] [--db PATH] analyse data files or an Offstate database
   offstate serve [--db PATH] [--port N] [--demo] start the local browser mode on 127.0.0.1
+  offstate export LOT [--out FILE] [--json] [--force] [--db PATH]
+                                               write the lot's flagged dies for failure analysis
   offstate generate-demo [--out DIR] [--seed N] write the invented demo lot (CSV + truth JSON)
 
 Default database: ${defaultDatabasePath()} (set OFFSTATE_DB or --db to change).
@@ -149,6 +153,28 @@ async function serveCommand(dbOption: string | undefined, port: number, demo: bo
   return new Promise<number>(() => undefined);
 }
 
+async function exportCommand(lot: string | undefined, outOption: string | undefined, json: boolean, force: boolean, dbOption: string | undefined, out: NodeJS.WriteStream): Promise<number> {
+  if (!lot) { process.stderr.write('offstate export: name the lot.\n'); return 2; }
+  const dbPath = resolve(dbOption ?? defaultDatabasePath());
+  if (!existsSync(dbPath)) { process.stderr.write(`offstate export: no database at ${dbPath}.\n`); return 2; }
+  const db = openDatabase(dbPath, { readonly: true });
+  try {
+    const summary = listLots(db).find((l) => l.lot === lot);
+    if (!summary) { process.stderr.write(`offstate export: no lot ${lot} in ${dbPath}.\n`); return 1; }
+    const analysis = analyzeStoredLot(db, lot);
+    const text = json ? JSON.stringify(jsonReport(analysis), null, 1) + '\n' : flaggedCsv(analysis, summary.params);
+    const target = resolve(outOption ?? safeFileName(`${lot}-flagged`, json ? 'json' : 'csv'));
+    writeNewFile(target, text, force);
+    out.write(`${target}: ${analysis.flagged.length} flagged dies of lot ${lot}.\n`);
+    return 0;
+  } catch (error) {
+    process.stderr.write(`offstate export: ${(error as Error).message}\n`);
+    return 1;
+  } finally {
+    db.close();
+  }
+}
+
 async function generateDemoCommand(outDir: string, seed: number | undefined): Promise<number> {
   const { writeDemoLot } = await import('./demo');
   const { DEMO_LOT_OPTIONS } = await import('../core/generator');
@@ -163,7 +189,7 @@ export async function main(argv: string[], out: NodeJS.WriteStream = process.std
     allowPositionals: true,
     options: {
       db: { type: 'string' }, json: { type: 'boolean' }, port: { type: 'string' }, demo: { type: 'boolean' },
-      out: { type: 'string' }, seed: { type: 'string' }, help: { type: 'boolean', short: 'h' }, version: { type: 'boolean' },
+      out: { type: 'string' }, seed: { type: 'string' }, force: { type: 'boolean' }, help: { type: 'boolean', short: 'h' }, version: { type: 'boolean' },
     },
   });
   const [command, ...rest] = positionals;
@@ -173,6 +199,7 @@ export async function main(argv: string[], out: NodeJS.WriteStream = process.std
     case 'import': return importCommand(rest, values.db, out);
     case 'analyze': return analyzeCommand(rest, values.json ?? false, values.db, out);
     case 'serve': return serveCommand(values.db, Number(values.port ?? 0), values.demo ?? false);
+    case 'export': return exportCommand(rest[0], values.out, values.json ?? false, values.force ?? false, values.db, out);
     case 'generate-demo': return generateDemoCommand(values.out ?? 'sample-data', values.seed === undefined ? undefined : Number(values.seed));
     default:
       process.stderr.write(`offstate: unknown command "${command}".\n\n${HELP}\n`);
