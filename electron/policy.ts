@@ -32,3 +32,22 @@ export function isAllowedExternal(url: string): boolean {
   return EXTERNAL_ALLOWED.some((pattern) => pattern.test(url));
 }
 
+
+/**
+ * Electron fuses for a packaged build (Electron docs, tutorial/fuses.md), every one decided:
+ * no running as plain Node, no NODE_OPTIONS or inspector flags, cookies encrypted, the app only
+ * from its integrity-checked asar, no extra file:// privileges. `node scripts/apply-fuses.mjs
+ * BINARY` writes them into a packaged binary; the development launch runs an unpackaged folder,
+ * so the asar fuses apply to packages only.
+ */
+export const ELECTRON_FUSES = {
+  RunAsNode: false,
+  EnableCookieEncryption: true,
+  EnableNodeOptionsEnvironmentVariable: false,
+  EnableNodeCliInspectArguments: false,
+  EnableEmbeddedAsarIntegrityValidation: true,
+  OnlyLoadAppFromAsar: true,
+  LoadBrowserProcessSpecificV8Snapshot: false,
+  GrantFileProtocolExtraPrivileges: false,
+  WasmTrapHandlers: true,
+} as const;

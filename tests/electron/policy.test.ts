@@ -4,7 +4,8 @@ import { describe, expect, it } from 'vitest';
 import { createRequire } from 'node:module';
 import { existsSync, readFileSync } from 'node:fs';
 import { join } from 'node:path';
-import { secureWebPreferences, isAllowedExternal, CONTENT_SECURITY_POLICY, APP_ORIGIN } from '../../electron/policy';
+import { secureWebPreferences, isAllowedExternal, CONTENT_SECURITY_POLICY, APP_ORIGIN, ELECTRON_FUSES } from '../../electron/policy';
+import { FuseV1Options } from '@electron/fuses';
 import { ROOT } from '../support/paths';
 
 describe('desktop window security', () => {
@@ -32,6 +33,12 @@ describe('desktop window security', () => {
     const main = readFileSync(join(ROOT, 'electron', 'main.ts'), 'utf8');
     expect(main).toMatch(/loadURL\(`\$\{APP_SCHEME\}:\/\/app\/index\.html`\)/);
     expect(main).not.toMatch(/loadFile\(/);
+  });
+  // Electron docs, tutorial/fuses.md: the fuses that turn off Node-style entry points.
+  it('decides every fuse Electron defines, with the Node entry points off', () => {
+    const known = Object.keys(FuseV1Options).filter((k) => Number.isNaN(Number(k)));
+    expect(Object.keys(ELECTRON_FUSES).sort()).toEqual(known.sort());
+    expect(ELECTRON_FUSES).toMatchObject({ RunAsNode: false, EnableNodeOptionsEnvironmentVariable: false, EnableNodeCliInspectArguments: false, GrantFileProtocolExtraPrivileges: false, EnableCookieEncryption: true, EnableEmbeddedAsarIntegrityValidation: true, OnlyLoadAppFromAsar: true });
   });
   it('exposes no raw ipcRenderer from the preload', () => {
     const preload = readFileSync(join(ROOT, 'electron', 'preload.ts'), 'utf8');
