@@ -17,7 +17,7 @@ beforeAll(async () => {
   writeFileSync(join(dir, 'ui', 'index.html'), '<!doctype html><title>t</title>');
   writeFileSync(join(dir, 'secret.txt'), 'outside the ui folder');
   service = new OffstateService({ dbPath: join(dir, 'db.sqlite'), mode: 'browser' });
-  running = await startServer({ service, uiDir: join(dir, 'ui'), maxCallBytes: 1024 });
+  running = await startServer({ service, uiDir: join(dir, 'ui'), maxCallBytes: 1024, maxUploadBytes: 64 * 1024 });
 });
 afterAll(async () => {
   await running.close();
@@ -81,6 +81,15 @@ describe('local browser mode server', () => {
     const traversal = await raw('/..%2fsecret.txt', { headers: { cookie: `offstate_token=${running.token}` } });
     expect(traversal.status).toBe(404);
     expect(traversal.body.toString()).not.toMatch(/outside/);
+  });
+  it('refuses uploads over the size limit and progress streams without the token', async () => {
+    const big = Buffer.alloc(100 * 1024, 0x41);
+    const refused = await raw('/api/upload?name=big.csv', { method: 'POST', headers: { 'x-offstate-token': running.token }, body: big });
+    expect(refused.status).toBe(413);
+    expect((await raw('/api/events')).status).toBe(401);
+    expect((await raw('/api/upload?name=x.csv', { method: 'POST', body: 'Lot,Wafer\n' })).status).toBe(401);
+    const lots = decodePayload<{ result: unknown[] }>((await call('listLots', [])).body).result;
+    expect(lots.map((l) => (l as { lot: string }).lot)).not.toContain('big');
   });
   it('imports an uploaded file and reports a missing lot as not found', async () => {
     const csv = 'Lot,Wafer,X,Y,Ioff_n [pA]\nUP1,1,0,0,5\nUP1,1,1,0,6\n';
