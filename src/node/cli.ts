@@ -7,7 +7,9 @@ import { dirname, resolve } from 'node:path';
 import { jsonReport, reasonText, type LotAnalysis } from '../core/analysis';
 import { openDatabase, type Db } from './store/database';
 import { listLots } from './store/repository';
-import { importDelimitedFile } from './importDelimited';
+import { importAnyFile, previewFile } from './importAny';
+import { resolveMapping, saveMapping } from './importMappings';
+import type { ImportPreview } from '../core/import';
 import { analyzeStoredLot } from './analysisStore';
 import { OffstateService } from './service';
 import { startServer } from './server';
@@ -20,7 +22,10 @@ import { formatDuration, progressLine } from './progressText';
 const HELP = `Offstate ${VERSION}: per-die leakage triage
 
 Usage:
-  offstate import FILE... [--db PATH]          store per-die CSV/TSV files (one transaction per file)
+  offstate import FILE... [--db PATH] [--mapping NAME|FILE.json]
+                                               store per-die CSV/TSV or STDF V4 files (one transaction per file)
+  offstate preview FILE [--mapping NAME|FILE.json] [--save-mapping NAME] [--json]
+                                               show how a file's columns or tests are read; save the mapping
   offstate analyze FILE... [--json] [--db PATH] analyse data files or an Offstate database
   offstate serve [--db PATH] [--port N] [--demo] start the local browser mode on 127.0.0.1
   offstate export LOT [--out FILE] [--json] [--force] [--db PATH]
@@ -47,16 +52,25 @@ function openUserDb(path: string | undefined): { db: Db; path: string } {
   return { db: openDatabase(dbPath), path: dbPath };
 }
 
-async function importCommand(files: string[], dbOption: string | undefined, out: NodeJS.WriteStream): Promise<number> {
+async function importCommand(files: string[], dbOption: string | undefined, mappingOption: string | undefined, out: NodeJS.WriteStream): Promise<number> {
   if (files.length === 0) { process.stderr.write('offstate import: name at least one file.\n'); return 2; }
   const { db, path } = openUserDb(dbOption);
+  if (db.readonly) {
+    db.close();
+    process.stderr.write(`offstate import: ${path} is read-only for you, so it was opened for reading only and nothing was imported.\n`);
+    return 1;
+  }
   let failures = 0;
   try {
+    let resolved: ReturnType<typeof resolveMapping>;
+    try { resolved = resolveMapping(db, mappingOption); } catch (error) { process.stderr.write(`offstate import: ${(error as Error).message}\n`); return 2; }
     for (const file of files) {
       const started = performance.now();
       try {
-        const result = await importDelimitedFile(db, file, {
-          onProgress: (p) => { if (process.stderr.isTTY) process.stderr.write(`\r${progressLine(p.bytesDone, p.bytesTotal, (performance.now() - started) / 1000)}`); },
+        const result = await importAnyFile(db, file, {
+          mapping: resolved.mapping,
+          mappingName: resolved.name,
+          onProgress: (p) => { if (process.stderr.isTTY) process.stderr.write(`\r${progressLine(p.bytesDone, p.bytesTotal, (performance.now() - started) / 1000)}, ${p.rows.toLocaleString('en')} rows`); },
         });
         if (process.stderr.isTTY) process.stderr.write('\r\x1b[K');
         if (result.status === 'already-imported') {
@@ -75,6 +89,40 @@ async function importCommand(files: string[], dbOption: string | undefined, out:
     db.close();
   }
   return failures > 0 ? 1 : 0;
+}
+
+function previewText(p: ImportPreview): string {
+  const lines = [`Format: ${p.format}${p.format === 'delimited' ? `, ${p.layout === 'long' ? 'one row per die and test' : 'one row per die'}, delimiter ${JSON.stringify(p.delimiter)}, header on line ${p.headerLine}` : ''}`];
+  if (p.appliedMapping) lines.push(`Mapping applied: ${p.appliedMapping}`);
+  for (const c of p.columns) {
+    const what = c.role === 'measurement' ? `${c.name} [${c.unit || 'no unit'}] x ${c.scale}` : c.role;
+    lines.push(`  ${String(c.index + 1).padStart(3)} ${c.header.padEnd(24)} -> ${what.padEnd(28)} ${c.samples.slice(0, 3).join(', ')}`);
+  }
+  for (const t of p.tests) lines.push(`  test ${t.test.padEnd(24)} -> ${(t.name || '(left out)').padEnd(16)} [${t.unit || 'no unit'}] ${t.count} result(s) seen`);
+  for (const w of p.warnings) lines.push(`Note: ${w}`);
+  for (const e of p.errors) lines.push(`Problem: ${e}`);
+  return lines.join('\n') + '\n';
+}
+
+async function previewCommand(files: string[], dbOption: string | undefined, mappingOption: string | undefined, saveAs: string | undefined, json: boolean, out: NodeJS.WriteStream): Promise<number> {
+  if (files.length !== 1) { process.stderr.write('offstate preview: name one file.\n'); return 2; }
+  const { db } = openUserDb(dbOption);
+  try {
+    const resolved = resolveMapping(db, mappingOption);
+    const preview = previewFile(db, files[0], resolved.mapping, resolved.name);
+    out.write(json ? JSON.stringify(preview) + '\n' : previewText(preview));
+    if (saveAs) {
+      if (preview.errors.length > 0) { process.stderr.write(`offstate preview: not saved, the file cannot be read this way.\n`); return 1; }
+      saveMapping(db, saveAs, preview.mapping);
+      if (!json) out.write(`Saved as mapping "${saveAs}"; files with the same header line will be read this way.\n`);
+    }
+    return preview.errors.length > 0 ? 1 : 0;
+  } catch (error) {
+    process.stderr.write(`offstate preview: ${(error as Error).message}\n`);
+    return 1;
+  } finally {
+    db.close();
+  }
 }
 
 function mergeAnalyses(analyses: LotAnalysis[]): LotAnalysis {
@@ -103,7 +151,7 @@ async function analyzeCommand(files: string[], json: boolean, dbOption: string |
           db.close();
         }
       } else {
-        const result = await importDelimitedFile(scratch, file);
+        const result = await importAnyFile(scratch, file);
         if (result.status === 'imported') {
           scratchUsed = true;
           if (result.rejected > 0 && !json) process.stderr.write(`${file}: ${result.rejected} rows rejected (first: ${result.messages[0] ?? ''})\n`);
@@ -189,14 +237,15 @@ export async function main(argv: string[], out: NodeJS.WriteStream = process.std
     allowPositionals: true,
     options: {
       db: { type: 'string' }, json: { type: 'boolean' }, port: { type: 'string' }, demo: { type: 'boolean' },
-      out: { type: 'string' }, seed: { type: 'string' }, force: { type: 'boolean' }, help: { type: 'boolean', short: 'h' }, version: { type: 'boolean' },
+      out: { type: 'string' }, seed: { type: 'string' }, mapping: { type: 'string' }, 'save-mapping': { type: 'string' }, force: { type: 'boolean' }, help: { type: 'boolean', short: 'h' }, version: { type: 'boolean' },
     },
   });
   const [command, ...rest] = positionals;
   if (values.version) { out.write(`${VERSION}\n`); return 0; }
   if (values.help || !command) { out.write(HELP + '\n'); return command || values.help ? 0 : 2; }
   switch (command) {
-    case 'import': return importCommand(rest, values.db, out);
+    case 'import': return importCommand(rest, values.db, values.mapping, out);
+    case 'preview': return previewCommand(rest, values.db, values.mapping, values['save-mapping'], values.json ?? false, out);
     case 'analyze': return analyzeCommand(rest, values.json ?? false, values.db, out);
     case 'serve': return serveCommand(values.db, Number(values.port ?? 0), values.demo ?? false);
     case 'export': return exportCommand(rest[0], values.out, values.json ?? false, values.force ?? false, values.db, out);

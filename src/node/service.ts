@@ -8,13 +8,16 @@ import { randomUUID } from 'node:crypto';
 import { magnitudes } from '../core/analysis';
 import { flaggedCsv } from '../core/export';
 import { median } from '../core/stats';
-import type { AppInfo, ImportResult, LotAnalysis, LotSummary, OffstateApi, ProgressEvent, WaferFrame, WaferSummary } from '../shared/api';
-import { openDatabase, type Db } from './store/database';
+import type { AppInfo, ColumnMapping, ImportFileOptions, ImportPreview, ImportResult, LotAnalysis, LotSummary, OffstateApi, ProgressEvent, SavedMapping, WaferFrame, WaferSummary } from '../shared/api';
+import { openDatabase, StoreError, type Db } from './store/database';
 import { listLots, listWaferNames, loadWafer, NotFoundError } from './store/repository';
-import { importDelimitedFile } from './importDelimited';
+import { importAnyFile, previewFile, previewHead } from './importAny';
+import { listMappings, resolveMapping, saveMapping } from './importMappings';
 import { analyzeStoredLot } from './analysisStore';
 import { runInWorker, type RunningJob } from './jobs';
 import { VERSION } from './version';
+import { loadLotColumn, readFaEdits, readStoredSettings, writeFaEdits, writeStoredSettings } from './viewStore';
+import type { FaEdit, StoredSettings, WaferColumn } from '../shared/api';
 
 export interface ServiceOptions {
   dbPath: string;
@@ -31,6 +34,8 @@ export class OffstateService implements OffstateApi {
   private readonly analysisCache = new Map<string, { version: number; result: Promise<LotAnalysis> }>();
   /** Bumped by every import, so cached analyses of changed lots are recomputed. */
   private dataVersion = 0;
+  /** Imports run one at a time: each holds the write transaction while it streams. */
+  private importQueue: Promise<unknown> = Promise.resolve();
 
   constructor(private readonly options: ServiceOptions) {
     this.db = openDatabase(options.dbPath, { nativeBinding: options.nativeBinding });
@@ -51,7 +56,7 @@ export class OffstateService implements OffstateApi {
   }
 
   async getInfo(): Promise<AppInfo> {
-    return { version: VERSION, mode: this.options.mode, database: this.options.dbPath };
+    return { version: VERSION, mode: this.options.mode, database: this.options.dbPath, readOnly: this.db.readonly };
   }
 
   async listLots(): Promise<LotSummary[]> {
@@ -73,11 +78,16 @@ export class OffstateService implements OffstateApi {
     return loadWafer(this.db, lot, wafer);
   }
 
-  private track<T>(kind: ProgressEvent['kind'], unit: ProgressEvent['unit'], start: (report: (done: number, total: number) => void) => RunningJob<T>): Promise<T> {
+  private track<T>(kind: ProgressEvent['kind'], unit: ProgressEvent['unit'], start: (report: (done: number, total: number, rows?: number) => void) => RunningJob<T>): Promise<T> {
     const jobId = randomUUID();
     const base = { jobId, kind, unit };
     this.emit({ ...base, phase: 'start', done: 0, total: 0 });
-    const job = start((done, total) => this.emit({ ...base, phase: 'progress', done, total }));
+    const began = performance.now();
+    const job = start((done, total, rows) => {
+      const seconds = (performance.now() - began) / 1000;
+      const rate = seconds > 0 ? done / seconds : 0;
+      this.emit({ ...base, phase: 'progress', done, total, ...(rows !== undefined ? { rows } : {}), rate, ...(rate > 0 ? { secondsLeft: Math.max(0, (total - done) / rate) } : {}) });
+    });
     this.jobs.set(jobId, job);
     return job.promise.then(
       (result) => { this.jobs.delete(jobId); this.emit({ ...base, phase: 'done', done: 1, total: 1 }); return result; },
@@ -90,20 +100,51 @@ export class OffstateService implements OffstateApi {
     );
   }
 
-  private inThread<T>(work: (signal: AbortSignal, report: (done: number, total: number) => void) => Promise<T> | T) {
-    return (report: (done: number, total: number) => void): RunningJob<T> => {
+  private inThread<T>(work: (signal: AbortSignal, report: (done: number, total: number, rows?: number) => void) => Promise<T> | T) {
+    return (report: (done: number, total: number, rows?: number) => void): RunningJob<T> => {
       const controller = new AbortController();
       return { promise: Promise.resolve().then(() => work(controller.signal, report)), cancel: () => controller.abort() };
     };
   }
 
-  async importFile(path: string, fileName = basename(path)): Promise<ImportResult> {
+  /** options as a string is the name to record for the file (uploads keep their own name). */
+  async importFile(path: string, options?: ImportFileOptions | string): Promise<ImportResult> {
+    if (this.db.readonly) throw new StoreError(`${this.options.dbPath} is read-only for you; it is open for reading only, so nothing can be imported.`);
+    const fileName = typeof options === 'string' ? options : basename(path);
+    const given = typeof options === 'string' ? undefined : options?.mapping;
+    const run = this.importQueue.then(() => this.importNow(path, fileName, given));
+    this.importQueue = run.catch(() => undefined);
+    return run;
+  }
+
+  private async importNow(path: string, fileName: string, given: ColumnMapping | string | undefined): Promise<ImportResult> {
     const { workerUrl, dbPath, nativeBinding } = this.options;
-    const result = await this.track<ImportResult>('import', 'bytes', workerUrl
+    const { mapping, name: mappingName } = resolveMapping(this.db, given);
+    // The worker request carries no mapping yet, so an import with an explicit mapping runs here;
+    // saved mappings that fit the headers are found by the worker itself in the settings table.
+    const result = await this.track<ImportResult>('import', 'bytes', workerUrl && !mapping
       ? (report) => runInWorker<ImportResult>(workerUrl, { task: 'import', dbPath, path, fileName, nativeBinding }, report)
-      : this.inThread((signal, report) => importDelimitedFile(this.db, path, { fileName, signal, onProgress: (p) => report(p.bytesDone, p.bytesTotal) })));
+      : this.inThread((signal, report) => importAnyFile(this.db, path, { fileName, signal, mapping, mappingName, onProgress: (p) => report(p.bytesDone, p.bytesTotal, p.rows) })));
     if (result.status === 'imported') { this.dataVersion++; this.analysisCache.clear(); }
     return result;
+  }
+
+  async previewImport(path: string, mapping?: ColumnMapping | string): Promise<ImportPreview> {
+    const resolved = resolveMapping(this.db, mapping);
+    return previewFile(this.db, path, resolved.mapping, resolved.name);
+  }
+
+  async previewBytes(_name: string, headBase64: string, mapping?: ColumnMapping | string): Promise<ImportPreview> {
+    const resolved = resolveMapping(this.db, mapping);
+    return previewHead(this.db, new Uint8Array(Buffer.from(headBase64, 'base64')), resolved.mapping, resolved.name);
+  }
+
+  async listMappings(): Promise<SavedMapping[]> {
+    return listMappings(this.db);
+  }
+
+  async saveMapping(name: string, mapping: ColumnMapping): Promise<void> {
+    saveMapping(this.db, name, mapping);
   }
 
   async importBytes(name: string, data: Uint8Array): Promise<ImportResult> {
@@ -135,6 +176,30 @@ export class OffstateService implements OffstateApi {
     const summary = listLots(this.db).find((l) => l.lot === lot);
     if (!summary) throw new NotFoundError(`No lot ${lot} in this database.`);
     return flaggedCsv(analysis, summary.params);
+  }
+
+  async getLotColumn(lot: string, param: string): Promise<WaferColumn[]> {
+    return loadLotColumn(this.db, lot, param);
+  }
+
+  async getSettings(): Promise<StoredSettings> {
+    return readStoredSettings(this.db);
+  }
+
+  /** Stores the settings; cached analyses are dropped so the next analysis uses them. */
+  async saveSettings(settings: StoredSettings): Promise<StoredSettings> {
+    const stored = writeStoredSettings(this.db, settings);
+    this.dataVersion++;
+    this.analysisCache.clear();
+    return stored;
+  }
+
+  async getFaEdits(lot: string): Promise<FaEdit[]> {
+    return readFaEdits(this.db, lot);
+  }
+
+  async saveFaEdits(lot: string, edits: FaEdit[]): Promise<FaEdit[]> {
+    return writeFaEdits(this.db, lot, edits);
   }
 
   async cancelJob(jobId: string): Promise<void> {

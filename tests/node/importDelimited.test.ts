@@ -78,4 +78,20 @@ describe('importDelimitedFile', () => {
     await expect(pending).rejects.toThrow(CancelledError);
     expect(listLots(db)).toEqual([]);
   });
+  it('stores nothing when cancelled after wafers were already written inside the transaction', async () => {
+    const db = openDatabase(':memory:');
+    const rows = [SAMPLE.split('\n')[0]];
+    for (let w = 1; w <= 30; w++) for (let i = 0; i < 3000; i++) rows.push(`LT8,${w},${i % 60},${Math.floor(i / 60)},1,1e-10,800,-30`);
+    const controller = new AbortController();
+    let sawOpenTransaction = false;
+    const pending = importDelimitedFile(db, write('many.csv', rows.join('\n')), {
+      signal: controller.signal, maxHeldCells: 5000, progressIntervalMs: 0,
+      onProgress: (p) => { if (p.bytesDone > p.bytesTotal / 2) { sawOpenTransaction = db.inTransaction; controller.abort(); } },
+    });
+    await expect(pending).rejects.toThrow(CancelledError);
+    expect(sawOpenTransaction).toBe(true);
+    expect(db.inTransaction).toBe(false);
+    expect(listLots(db)).toEqual([]);
+    expect((db.prepare('SELECT count(*) AS n FROM imports').get() as { n: number }).n).toBe(0);
+  });
 });

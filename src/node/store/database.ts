@@ -2,7 +2,7 @@
 // application id that tells our files from foreign ones, and the pending migrations.
 
 import Database from 'better-sqlite3';
-import { existsSync, statSync } from 'node:fs';
+import { accessSync, constants, existsSync, statSync } from 'node:fs';
 import { MIGRATIONS, SCHEMA_VERSION } from './migrations';
 
 /** "OFST" as a 32-bit integer, written into the SQLite header's application_id field. */
@@ -19,6 +19,16 @@ export interface OpenOptions {
 }
 
 export type Db = Database.Database;
+
+/** True when this process may write the file (a read-only file is opened read-only, not refused). */
+export function canWrite(path: string): boolean {
+  try {
+    accessSync(path, constants.W_OK);
+    return true;
+  } catch {
+    return false;
+  }
+}
 
 export function openDatabase(path: string, options: OpenOptions = {}): Db {
   const exists = path !== ':memory:' && existsSync(path);
@@ -43,14 +53,15 @@ export function openDatabase(path: string, options: OpenOptions = {}): Db {
       probe.close();
     }
   }
-  const db = new Database(path, { readonly: options.readonly ?? false, nativeBinding: options.nativeBinding });
+  const readonly = options.readonly ?? (exists && !canWrite(path));
+  const db = new Database(path, { readonly, nativeBinding: options.nativeBinding });
   db.pragma('busy_timeout = 5000');
-  if (!options.readonly) {
+  if (!readonly) {
     db.pragma('journal_mode = WAL');
     db.pragma('synchronous = NORMAL');
   }
   db.pragma('foreign_keys = ON');
-  if (!options.readonly) migrate(db);
+  if (!readonly) migrate(db);
   return db;
 }
 

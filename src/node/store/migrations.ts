@@ -52,6 +52,35 @@ export const MIGRATIONS: Migration[] = [
       );
     `,
   },
+  {
+    version: 2,
+    description: 'wafer geometry (STDF WCR), per-die bins (STDF PRR), and the files a merged wafer came from',
+    sql: `
+      CREATE TABLE wafer_geometry (
+        wafer_id INTEGER PRIMARY KEY REFERENCES wafers(id) ON DELETE CASCADE,
+        wafer_size REAL,
+        die_height REAL,
+        die_width REAL,
+        units TEXT,
+        flat TEXT,
+        center_x INTEGER,
+        center_y INTEGER,
+        pos_x TEXT,
+        pos_y TEXT
+      );
+      CREATE TABLE wafer_bins (
+        wafer_id INTEGER PRIMARY KEY REFERENCES wafers(id) ON DELETE CASCADE,
+        hard BLOB NOT NULL,
+        soft BLOB NOT NULL
+      );
+      CREATE TABLE wafer_sources (
+        wafer_id INTEGER NOT NULL REFERENCES wafers(id) ON DELETE CASCADE,
+        import_id INTEGER NOT NULL REFERENCES imports(id),
+        dies INTEGER NOT NULL,
+        PRIMARY KEY (wafer_id, import_id)
+      );
+    `,
+  },
 ];
 
 export const SCHEMA_VERSION = MIGRATIONS[MIGRATIONS.length - 1].version;
