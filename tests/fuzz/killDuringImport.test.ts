@@ -4,7 +4,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { spawn, spawnSync } from 'node:child_process';
 import { createHash } from 'node:crypto';
-import { existsSync, rmSync, writeFileSync } from 'node:fs';
+import { existsSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import Database from 'better-sqlite3';
 import { DEMO_CSV, ROOT, scratchDir } from '../support/paths';
@@ -88,5 +88,30 @@ describe('killing the importer at random moments', () => {
     expect(fingerprint('KX2417.1')).toBe(demoBefore);
     console.log(`kill-during-import: ${cycles} cycles over a ${span.toFixed(0)} ms run, ${completed} ran to the end, ${killed} killed (${killed - killedAfterCommit} before the commit: lot absent; ${killedAfterCommit} after it: lot whole); integrity ok and the earlier lot unchanged every time`);
     expect(killed).toBeGreaterThan(0);
+  }, 180_000);
+});
+
+describe('killing an export at random moments', () => {
+  it('leaves either no file or the whole file under the final name, and the database untouched', async () => {
+    const demoBefore = fingerprint('KX2417.1');
+    const whole = join(dir, 'reference.csv');
+    expect(spawnSync(process.execPath, [CLI, 'export', 'KX2417.1', '--db', db, '--out', whole]).status).toBe(0);
+    const expected = readFileSync(whole, 'utf8');
+    const t0 = performance.now();
+    expect(spawnSync(process.execPath, [CLI, 'export', 'KX2417.1', '--db', db, '--out', join(dir, 'timing.csv')]).status).toBe(0);
+    const span = performance.now() - t0;
+    let absent = 0;
+    let complete = 0;
+    for (let c = 0; c < 16; c++) {
+      const out = join(dir, `fa-${c}.csv`);
+      const child = spawn(process.execPath, [CLI, 'export', 'KX2417.1', '--db', db, '--out', out], { stdio: 'ignore' });
+      const timer = setTimeout(() => child.kill('SIGKILL'), span * (0.2 + (c / 16) * 0.9));
+      await new Promise((resolve) => child.on('exit', resolve));
+      clearTimeout(timer);
+      if (existsSync(out)) { expect(readFileSync(out, 'utf8')).toBe(expected); complete++; } else absent++;
+    }
+    expect(state().integrity).toBe('ok');
+    expect(fingerprint('KX2417.1')).toBe(demoBefore);
+    console.log(`kill-during-export: 16 kills, ${absent} left no file, ${complete} left the whole file, none a partial one`);
   }, 180_000);
 });
