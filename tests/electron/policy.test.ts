@@ -33,6 +33,11 @@ describe('desktop window security', () => {
     const main = readFileSync(join(ROOT, 'electron', 'main.ts'), 'utf8');
     expect(main).toMatch(/loadURL\(`\$\{APP_SCHEME\}:\/\/app\/index\.html`\)/);
     expect(main).not.toMatch(/loadFile\(/);
+    // The window is built with exactly these preferences, and the session rules are applied.
+    expect(main).toMatch(/webPreferences: secureWebPreferences\(/);
+    expect(main).toMatch(/hardenSession\(\)/);
+    expect(main).toMatch(/hardenContents\(mainWindow\.webContents\)/);
+    expect(main).toMatch(/requestSingleInstanceLock\(\)/);
   });
   // Electron docs, tutorial/fuses.md: the fuses that turn off Node-style entry points.
   it('decides every fuse Electron defines, with the Node entry points off', () => {
