@@ -18,16 +18,9 @@ import type { WaferGeometry } from '../core/stdf';
 import type { ImportResult } from '../shared/api';
 import type { Db } from './store/database';
 import { DuplicateWaferError, findImportByHash, loadWafer, type ImportRecord } from './store/repository';
+import { blobOf, int32Of } from './store/blobs';
 
-function blobOf(array: Float64Array | Int32Array): Buffer {
-  return Buffer.from(array.buffer, array.byteOffset, array.byteLength);
-}
 
-function int32Of(blob: Buffer): Int32Array {
-  const copy = new Int32Array(blob.byteLength / 4);
-  new Uint8Array(copy.buffer).set(blob);
-  return copy;
-}
 
 export interface StoredWafer {
   frame: WaferFrame;

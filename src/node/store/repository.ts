@@ -4,22 +4,10 @@
 import type { ParamInfo, WaferFrame } from '../../core/frame';
 import type { ImportResult, LotSummary } from '../../shared/api';
 import type { Db } from './database';
+import { blobOf, float64Of, int32Of } from './blobs';
 
-function blobOf(array: Float64Array | Int32Array): Buffer {
-  return Buffer.from(array.buffer, array.byteOffset, array.byteLength);
-}
 
-function float64Of(blob: Buffer): Float64Array {
-  const copy = new Float64Array(blob.byteLength / 8);
-  new Uint8Array(copy.buffer).set(blob);
-  return copy;
-}
 
-function int32Of(blob: Buffer): Int32Array {
-  const copy = new Int32Array(blob.byteLength / 4);
-  new Uint8Array(copy.buffer).set(blob);
-  return copy;
-}
 
 /** Orders wafer names the way people read them: "2" before "10", "W02" before "W10". */
 export function naturalCompare(a: string, b: string): number {
