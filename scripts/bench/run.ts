@@ -8,6 +8,9 @@ import { loadLot } from '../../src/node/store/repository';
 import { analyzeLot } from '../../src/core/analysis';
 import { DEMO_LOT_OPTIONS, lotCsvChunks, prepareLot, iterateWafers } from '../../src/core/generator';
 import { projectRoot } from '../../src/node/paths';
+import { benchAnalysis } from './analysis';
+import { benchImport, rssChild } from './import';
+import { benchSpatial } from './spatial';
 
 const root = projectRoot();
 const cacheDir = join(root, '.cache', 'bench');
@@ -55,6 +58,11 @@ async function main(): Promise<void> {
     console.log(`(generated ${bigCsv} in ${seconds(t).toFixed(1)} s; cached for later runs)`);
   }
   await measure('full-size lot', bigCsv);
+  benchSpatial();
+  await benchImport(cacheDir, bigCsv, process.argv.includes('--big'));
+  await benchAnalysis(bigCsv, join(cacheDir, 'full-size lot.sqlite'));
 }
 
-main().catch((error) => { console.error(error); process.exit(1); });
+const rssAt = process.argv.indexOf('--rss-child');
+if (rssAt >= 0) rssChild(process.argv[rssAt + 1], process.argv[rssAt + 2]).catch((error) => { console.error(error); process.exit(1); });
+else main().catch((error) => { console.error(error); process.exit(1); });

@@ -1,20 +1,64 @@
-// Analysis of a stored lot, with the settings kept in the database.
+// Analysis of a stored lot, with the settings kept in the database and the earlier lots of the
+// store as the reference for static PAT (AEC-Q001) and for excursion scores against history.
 
-import { analyzeLot, DEFAULT_ANALYSIS_SETTINGS, type AnalysisSettings, type LotAnalysis } from '../core/analysis';
+import {
+  analyzeLot, PAT_IQR_DIVISOR, resolveSettings, type AnalysisHistory, type AnalysisSettings, type LotAnalysis, type StaticReference,
+} from '../core/analysis';
+import { isCurrentUnit } from '../core/params';
+import { selectQuantilesInPlace } from '../core/stats';
 import type { Db } from './store/database';
-import { getSetting, loadLot } from './store/repository';
+import { getSetting, listLots, listWaferNames, loadLot, loadWafer } from './store/repository';
 
 export function readAnalysisSettings(db: Db): AnalysisSettings {
   const text = getSetting(db, 'analysis');
-  if (!text) return { ...DEFAULT_ANALYSIS_SETTINGS };
+  if (!text) return resolveSettings();
   try {
-    return { ...DEFAULT_ANALYSIS_SETTINGS, ...(JSON.parse(text) as Partial<AnalysisSettings>) };
+    return resolveSettings(JSON.parse(text) as Partial<AnalysisSettings>);
   } catch {
-    return { ...DEFAULT_ANALYSIS_SETTINGS };
+    return resolveSettings();
   }
+}
+
+/** Dies taken from each earlier wafer: AEC-Q001 asks at least 5 spread over the wafer; an even
+ * spread of this many keeps the reference cheap on 70,000-die wafers. */
+const DIES_PER_WAFER = 2000;
+
+/**
+ * Pooled robust statistics of every parameter over the lots imported before `lot` (analysis
+ * scale: log10|I| for currents): robust mean = median, robust sigma = (Q3 - Q1)/1.35.
+ */
+export function readHistory(db: Db, lot: string): AnalysisHistory {
+  const lots = listLots(db);
+  const at = lots.findIndex((l) => l.lot === lot);
+  const earlier = (at < 0 ? lots : lots.slice(0, at)).filter((l) => l.lot !== lot);
+  const pooled = new Map<string, number[]>();
+  for (const summary of earlier) {
+    for (const name of listWaferNames(db, summary.lot)) {
+      const frame = loadWafer(db, summary.lot, name);
+      const n = frame.x.length;
+      const step = Math.max(1, Math.floor(n / DIES_PER_WAFER));
+      for (const p of frame.params) {
+        const column = frame.values[p.name];
+        const current = isCurrentUnit(p.unit);
+        let list = pooled.get(p.name);
+        if (!list) { list = []; pooled.set(p.name, list); }
+        for (let i = 0; i < n; i += step) {
+          const v = current ? Math.log10(Math.abs(column[i])) : column[i];
+          if (Number.isFinite(v)) list.push(v);
+        }
+      }
+    }
+  }
+  const references: Record<string, StaticReference> = {};
+  for (const [name, list] of pooled) {
+    if (list.length < 30) continue;
+    const [q1, centre, q3] = selectQuantilesInPlace(Float64Array.from(list), [0.25, 0.5, 0.75]);
+    references[name] = { centre, robustSigma: (q3 - q1) / PAT_IQR_DIVISOR, lots: earlier.length, n: list.length };
+  }
+  return { lots: earlier.length, references };
 }
 
 export function analyzeStoredLot(db: Db, lot: string, onProgress?: (done: number, total: number) => void): LotAnalysis {
   const frames = loadLot(db, lot);
-  return analyzeLot(frames, { settings: readAnalysisSettings(db), onProgress });
+  return analyzeLot(frames, { settings: readAnalysisSettings(db), history: readHistory(db, lot), onProgress });
 }

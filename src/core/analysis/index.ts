@@ -1,11 +1,16 @@
 // Front door of the analysis engine.
 export * from './types';
-export { analyzeLot, concatFrames, methodDescription, type AnalyzeOptions } from './analyzeLot';
+export { analyzeLot, concatFrames, methodDescription, type AnalysisHistory, type AnalyzeOptions } from './analyzeLot';
 export { groupStats, indicesBySite } from './groupStats';
 export { paramSummary } from './paramSummary';
 export { tradeoffCorrelations } from './correlation';
-export { siteBias } from './siteBias';
-export { robustZReasons } from './robustZ';
+export { siteBias, siteBiasOfStream } from './siteBias';
+export { PAT_IQR_DIVISOR } from './robustScale';
+export { dynamicPatLimits, staticPatLimits, specOnScale } from './pat';
+export { neighbourhood, nnrResiduals } from './neighbours';
+export { classifyDie, diblMvPerV, impliedSwing } from './mechanism';
+export { hardwareSuspects } from './hardwareSuspects';
+export { excursionScores } from './excursion';
 export { reasonText } from './reasonText';
 export { magnitudes, log10Magnitudes, analysisScale } from './scales';
 export { jsonReport, type JsonReport } from './report';

@@ -1,8 +1,9 @@
 // The `analyze --json` contract: per wafer, the identifiers as written, die count, per-parameter
 // statistics and the reported probe-site biases; one flagged entry per die with all its reasons.
-// Fields not computed yet (pattern, mechanism) are left out, not filled with placeholders.
+// Every flagged die carries its mechanism call; fields not computed yet (pattern) are left out,
+// not filled with placeholders.
 
-import type { LotAnalysis, ParamSummary, Reason } from './types';
+import type { ExcursionScore, HardwareSuspect, LotAnalysis, MechanismCall, ParamSummary, Reason } from './types';
 import { reasonText } from './reasonText';
 
 export interface JsonParam {
@@ -24,8 +25,18 @@ export interface JsonReport {
     wafer: string;
     dies: number;
     params: Record<string, JsonParam>;
-    siteBias: { param: string; site: number; shift: number; p: number }[];
+    siteBias: { param: string; site: number; shift: number; p: number; rankBiserial: number; kruskalWallisP: number }[];
+    excursion: Omit<ExcursionScore, 'shifts'>;
   }[];
+  lots: {
+    lot: string;
+    wafers: number;
+    /** Wafer names, most excursive first. */
+    waferOrder: string[];
+    siteBias: { param: string; site: number; shift: number; p: number }[];
+    hardwareSuspects: HardwareSuspect[];
+  }[];
+  warnings: string[];
   flagged: {
     lot: string;
     wafer: string;
@@ -34,6 +45,7 @@ export interface JsonReport {
     site: number | null;
     reasons: (Reason & { text: string })[];
     values: Record<string, number | null>;
+    mechanism: MechanismCall;
   }[];
 }
 
@@ -53,12 +65,20 @@ export function jsonReport(analysis: LotAnalysis): JsonReport {
       wafer: w.wafer,
       dies: w.dies,
       params: Object.fromEntries(Object.entries(w.params).map(([k, v]) => [k, jsonParam(v)])),
-      siteBias: w.siteBias.map((b) => ({ param: b.param, site: b.site, shift: b.shift, p: b.p })),
+      siteBias: w.siteBias.map((b) => ({ param: b.param, site: b.site, shift: b.shift, p: b.p, rankBiserial: b.rankBiserial, kruskalWallisP: b.kruskalWallisP })),
+      excursion: { score: w.excursion.score, param: w.excursion.param, shift: w.excursion.shift, flaggedFraction: w.excursion.flaggedFraction, ...(w.excursion.vsHistory ? { vsHistory: w.excursion.vsHistory } : {}) },
     })),
+    lots: analysis.lots.map((l) => ({
+      lot: l.lot, wafers: l.wafers, waferOrder: l.waferOrder,
+      siteBias: l.siteBias.map((b) => ({ param: b.param, site: b.site, shift: b.shift, p: b.p })),
+      hardwareSuspects: l.hardwareSuspects,
+    })),
+    warnings: analysis.warnings ?? [],
     flagged: analysis.flagged.map((d) => ({
       lot: d.lot, wafer: d.wafer, x: d.x, y: d.y, site: d.site < 0 ? null : d.site,
       reasons: d.reasons.map((r) => ({ ...r, text: reasonText(r) })),
       values: d.values,
+      mechanism: d.mechanism,
     })),
   };
 }

@@ -24,6 +24,7 @@ export { median } from './median';
 export { IQR_PER_SIGMA, MAD_TO_SIGMA, iqrSigma, madSigma, medianAbsoluteDeviation } from './robustSigma';
 export { midranksOfFinite, rank, rankWithTies, type Ranking } from './ranks';
 export { ascendingOrder } from './sortOrder';
+export { ascendingOrderByHighWord } from './ascendingOrderByHighWord';
 export { pearson } from './pearson';
 export { spearman } from './spearman';
 export { normalCdf, normalQuantile, normalSurvival } from './normal';
@@ -39,3 +40,5 @@ export {
   type LinearFit,
 } from './leastSquares';
 export { summarize, type SummaryStatistics } from './summarize';
+export { repeatedMedianLine, type RobustLine } from './repeatedMedianLine';
+export { theilSenLine } from './theilSen';

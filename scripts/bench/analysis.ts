@@ -1,0 +1,84 @@
+// Analysis benchmark (part of npm run bench): the full analysis of the full-size lot (25 wafers x
+// ~70,000 dies) with all its parameters (best of two runs) and with the four current parameters
+// alone (best of three), wall and CPU time, with the machine's load average beside them (other
+// work on the machine slows every figure); then DuckDB (@duckdb/node-api, dev dependency) computing the same
+// per-wafer median, standard deviation, quartiles and Ion-Ioff correlation on the same CSV, and
+// the ratio. Prints figures only.
+import { availableParallelism, loadavg } from 'node:os';
+import { openDatabase } from '../../src/node/store/database';
+import { listLots, loadLot } from '../../src/node/store/repository';
+import { analyzeLot } from '../../src/core/analysis';
+import type { WaferFrame } from '../../src/core/frame';
+
+const CURRENTS = ['Ioff_n', 'Ion_n', 'Ioff_p', 'Ion_p'];
+
+function only(frames: WaferFrame[], names: string[]): WaferFrame[] {
+  return frames.map((f) => ({ ...f, params: f.params.filter((p) => names.includes(p.name)), values: Object.fromEntries(names.map((n) => [n, f.values[n]])) }));
+}
+
+function timeBest(run: () => void, times = 2): { wall: number; cpu: number } {
+  let best = { wall: Infinity, cpu: Infinity };
+  for (let i = 0; i < times; i++) {
+    const cpu0 = process.cpuUsage();
+    const t = performance.now();
+    run();
+    const wall = (performance.now() - t) / 1000;
+    const used = process.cpuUsage(cpu0);
+    if (wall < best.wall) best = { wall, cpu: (used.user + used.system) / 1e6 };
+  }
+  return best;
+}
+
+async function timeAsync(run: () => Promise<unknown>): Promise<number> {
+  const t = performance.now();
+  await run();
+  return (performance.now() - t) / 1000;
+}
+
+export async function benchAnalysis(csvPath: string, dbPath: string): Promise<void> {
+  const db = openDatabase(dbPath, { readonly: true });
+  let frames: WaferFrame[];
+  try {
+    frames = loadLot(db, listLots(db)[0].lot);
+  } finally {
+    db.close();
+  }
+  const dies = frames.reduce((n, f) => n + f.x.length, 0);
+  console.log(`analysis engine on the full-size lot: ${frames.length} wafers, ${dies} dies (wall / CPU of this process; 1-minute load average ${loadavg()[0].toFixed(1)} on ${availableParallelism()} cores)`);
+  let flagged = 0;
+  const all = timeBest(() => { flagged = analyzeLot(frames).flagged.length; });
+  console.log(`  all ${frames[0].params.length} parameters, best of 2: ${all.wall.toFixed(2)} s / ${all.cpu.toFixed(2)} s CPU (${flagged} flagged)`);
+  const four = only(frames, CURRENTS);
+  const currents = timeBest(() => { flagged = analyzeLot(four).flagged.length; }, 3);
+  console.log(`  four currents (${CURRENTS.join(', ')}), best of 3: ${currents.wall.toFixed(2)} s / ${currents.cpu.toFixed(2)} s CPU (${flagged} flagged; goal < 3 s)`);
+
+  // DuckDB on the same rows: per wafer, for each current, median, sample standard deviation and
+  // type 7 quartiles (quantile_cont) of |I| and of log10|I|, and corr(|Ion|, log10|Ioff|).
+  const { DuckDBInstance } = await import('@duckdb/node-api');
+  for (const threads of [1, 2]) {
+    const instance = await DuckDBInstance.create(':memory:', { threads: String(threads) });
+    const connection = await instance.connect();
+    const load = await timeAsync(() => connection.run(`CREATE TABLE lot AS SELECT * FROM read_csv('${csvPath.replace(/'/g, "''")}', header = true)`));
+    const columns = { Ioff_n: '"Ioff_n [pA]"', Ion_n: '"Ion_n (uA)"', Ioff_p: '"IOFF_P (pA)"', Ion_p: '"Ion_p (uA)"' };
+    const stats = Object.entries(columns).flatMap(([name, column]) => {
+      const mag = `abs(${column})`;
+      const log = `log10(abs(${column}))`;
+      return [
+        `quantile_cont(${mag}, [0.25, 0.5, 0.75]) AS ${name}_q`, `stddev_samp(${mag}) AS ${name}_sd`,
+        `quantile_cont(${log}, [0.25, 0.5, 0.75]) AS ${name}_lq`, `stddev_samp(${log}) AS ${name}_lsd`,
+      ];
+    });
+    const sql = `SELECT Wafer, count(*) AS n, ${stats.join(', ')},
+      corr(abs("Ion_n (uA)"), log10(abs("Ioff_n [pA]"))) AS r_n, corr(abs("Ion_p (uA)"), log10(abs("IOFF_P (pA)"))) AS r_p
+      FROM lot GROUP BY Wafer ORDER BY Wafer`;
+    let rows = 0;
+    const query = Math.min(
+      await timeAsync(async () => { rows = (await connection.runAndReadAll(sql)).getRows().length; }),
+      await timeAsync(async () => { rows = (await connection.runAndReadAll(sql)).getRows().length; }),
+    );
+    console.log(`  DuckDB, ${threads} thread${threads > 1 ? 's' : ''}: CSV load ${load.toFixed(2)} s; per-wafer median, sd, quartiles (|I| and log10), corr for ${rows} wafers: ${query.toFixed(2)} s`);
+    console.log(`    ratio (our full analysis of the four currents / DuckDB's per-wafer statistics): ${(currents.wall / query).toFixed(1)}x`);
+    connection.closeSync();
+    instance.closeSync();
+  }
+}
