@@ -132,6 +132,7 @@ function mergeAnalyses(analyses: LotAnalysis[]): LotAnalysis {
     wafers: analyses.flatMap((a) => a.wafers),
     lots: analyses.flatMap((a) => a.lots),
     flagged: analyses.flatMap((a) => a.flagged),
+    warnings: analyses.flatMap((a) => a.warnings ?? []),
   };
 }
 

@@ -31,6 +31,17 @@ describe('offstate export', () => {
     const rows = lines.filter((l) => l.startsWith('KX2417.1,'));
     expect(rows.length).toBe(analysis.flagged.length);
     expect(rows.length).toBeGreaterThan(0);
+    // Mechanism and cluster columns carry the same calls as the JSON (simple CSV: the demo ids hold no commas).
+    const columns = header.split(',');
+    const mech = columns.indexOf('mechanism');
+    const cluster = columns.indexOf('cluster size');
+    const byDie = new Map(analysis.flagged.map((f: any) => [`${f.wafer}|${f.x}|${f.y}`, f]));
+    for (const row of rows) {
+      const f = row.split(',');
+      const die: any = byDie.get(`${f[1]}|${f[2]}|${f[3]}`);
+      expect(f[mech]).toBe(die.mechanism.kind);
+      expect(f[cluster]).toBe(die.cluster ? String(die.cluster.size) : '');
+    }
     writeFileSync(out, 'keep me');
     const refused = cli('export', 'KX2417.1', '--db', db, '--out', out);
     expect(refused.status).toBe(1);

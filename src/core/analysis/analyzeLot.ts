@@ -24,6 +24,7 @@ import { siteBiasOfStream, siteSlots } from './siteBias';
 import { robustCentre, sortColumn, type SortedColumn } from './sortedColumn';
 import { combineMoments, momentsOf, type Moments } from './sortedSummary';
 import { scatterLotMidranks, scatterMidranks, splitBySite, streamSummary } from './streams';
+import { attachPatterns } from './wafersPattern';
 import {
   resolveSettings, type AnalysisSettings, type Correlation, type FlaggedDie, type LotAnalysis, type LotStats,
   type ParamSummary, type PatLimits, type Reason, type SiteBias, type StaticReference, type WaferAnalysis,
@@ -97,8 +98,10 @@ export function analyzeLot(frames: WaferFrame[], options: AnalyzeOptions = {}): 
   if (settings.temperatureC === null && options.history && options.history.lots > 0) {
     warnings.push('Chuck temperature unknown: earlier lots are compared as if measured at the same temperature.');
   }
+  const waferList = frames.map((f) => wafers.get(f)!);
+  attachPatterns(frames, flagged).forEach((pattern, i) => { waferList[i].pattern = pattern; });
   return {
-    settings, method: methodDescription(settings), wafers: frames.map((f) => wafers.get(f)!), lots, flagged,
+    settings, method: methodDescription(settings), wafers: waferList, lots, flagged,
     ...(warnings.length ? { warnings } : {}),
   };
 }

@@ -1,9 +1,10 @@
 // The `analyze --json` contract: per wafer, the identifiers as written, die count, per-parameter
 // statistics and the reported probe-site biases; one flagged entry per die with all its reasons.
-// Every flagged die carries its mechanism call; fields not computed yet (pattern) are left out,
-// not filled with placeholders.
+// Every flagged die carries its mechanism call (and its cluster when it is in one); every wafer
+// its spatial pattern. Nothing is filled with placeholders.
 
-import type { ExcursionScore, HardwareSuspect, LotAnalysis, MechanismCall, ParamSummary, Reason } from './types';
+import type { ClusterSummary, ExcursionScore, HardwareSuspect, LotAnalysis, MechanismCall, ParamSummary, Reason } from './types';
+import type { SignatureLabel } from '../spatial';
 import { reasonText } from './reasonText';
 
 export interface JsonParam {
@@ -27,6 +28,7 @@ export interface JsonReport {
     params: Record<string, JsonParam>;
     siteBias: { param: string; site: number; shift: number; p: number; rankBiserial: number; kruskalWallisP: number }[];
     excursion: Omit<ExcursionScore, 'shifts'>;
+    pattern?: { label: SignatureLabel; confidence: number; rule: string; clusters: ClusterSummary[] };
   }[];
   lots: {
     lot: string;
@@ -46,6 +48,7 @@ export interface JsonReport {
     reasons: (Reason & { text: string })[];
     values: Record<string, number | null>;
     mechanism: MechanismCall;
+    cluster?: { id: number; size: number; line: boolean };
   }[];
 }
 
@@ -67,6 +70,7 @@ export function jsonReport(analysis: LotAnalysis): JsonReport {
       params: Object.fromEntries(Object.entries(w.params).map(([k, v]) => [k, jsonParam(v)])),
       siteBias: w.siteBias.map((b) => ({ param: b.param, site: b.site, shift: b.shift, p: b.p, rankBiserial: b.rankBiserial, kruskalWallisP: b.kruskalWallisP })),
       excursion: { score: w.excursion.score, param: w.excursion.param, shift: w.excursion.shift, flaggedFraction: w.excursion.flaggedFraction, ...(w.excursion.vsHistory ? { vsHistory: w.excursion.vsHistory } : {}) },
+      ...(w.pattern ? { pattern: { label: w.pattern.label, confidence: w.pattern.confidence, rule: w.pattern.rule, clusters: w.pattern.clusters } } : {}),
     })),
     lots: analysis.lots.map((l) => ({
       lot: l.lot, wafers: l.wafers, waferOrder: l.waferOrder,
@@ -79,6 +83,7 @@ export function jsonReport(analysis: LotAnalysis): JsonReport {
       reasons: d.reasons.map((r) => ({ ...r, text: reasonText(r) })),
       values: d.values,
       mechanism: d.mechanism,
+      ...(d.cluster ? { cluster: d.cluster } : {}),
     })),
   };
 }

@@ -1,6 +1,8 @@
 // Result shapes of the analysis: plain data, safe to clone, to send over any transport and to print
 // as the `analyze --json` contract.
 
+import type { SignatureEvidence, SignatureLabel } from '../spatial';
+
 /** Location and spread of one set of values. */
 export interface Summary {
   n: number;
@@ -157,6 +159,32 @@ export interface WaferAnalysis extends GroupStats {
   flaggedCount: number;
   excursion: ExcursionScore;
   tradeoff: TradeoffBand[];
+  /** Spatial signature of the flagged dies (Wu, Jang & Chen 2015 vocabulary). */
+  pattern?: WaferPattern;
+}
+
+export interface ClusterSummary {
+  id: number;
+  size: number;
+  centroidXMm: number;
+  centroidYMm: number;
+  centroidRadiusFraction: number;
+  radiusMm: number;
+  elongation: number;
+  lengthMm: number;
+  widthMm: number;
+  majorAxisDeg: number;
+  /** True when the cluster reads as a straight line (scratch-like). */
+  line: boolean;
+}
+
+export interface WaferPattern {
+  label: SignatureLabel;
+  confidence: number;
+  /** The rule that decided, in words. */
+  rule: string;
+  evidence: SignatureEvidence;
+  clusters: ClusterSummary[];
 }
 
 export interface LotStats extends GroupStats {
@@ -248,6 +276,8 @@ export interface FlaggedDie {
   /** Every parameter's value at this die, SI base units with the raw sign (null when missing). */
   values: Record<string, number | null>;
   mechanism: MechanismCall;
+  /** The 8-neighbour cluster of flagged dies this die belongs to, when it is in one. */
+  cluster?: { id: number; size: number; line: boolean };
 }
 
 export interface SpecLimit {
