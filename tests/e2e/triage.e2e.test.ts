@@ -113,6 +113,13 @@ async function waitForWafer(wafer: string): Promise<void> {
   }, wafer, { timeout: TIMEOUT });
 }
 
+/** The column preview opens before every import: check it read the file, then confirm. */
+async function confirmImport(): Promise<void> {
+  await page.locator('[data-testid="import-preview"]').waitFor({ timeout: TIMEOUT });
+  await page.locator('[data-testid="preview-summary"], [data-testid="preview-error"]').first().waitFor({ timeout: TIMEOUT });
+  await page.locator('[data-testid="import-confirm"]').click();
+}
+
 async function shot(name: string): Promise<void> {
   await page.screenshot({ path: join(ARTIFACTS, name) });
 }
@@ -167,6 +174,14 @@ describe.skipIf(missing.length > 0)('triage in the browser', () => {
 
   it('imports the demo file through the file input and shows the first wafer', async () => {
     await page.locator('[data-testid="import-input"]').setInputFiles(DEMO_CSV);
+    // The preview lists every column of the file's header line, die x and y among them.
+    await page.locator('[data-testid="preview-columns"]').waitFor({ timeout: TIMEOUT });
+    const header = readFileSync(DEMO_CSV, 'utf8').split(/\r?\n/)[0].split(',');
+    expect(await page.locator('[data-testid="preview-column"]').count()).toBe(header.length);
+    expect(await page.locator('[data-testid="preview-column"][data-role="x"]').count()).toBe(1);
+    expect(await page.locator('[data-testid="preview-column"][data-role="y"]').count()).toBe(1);
+    await shot('01b-import-preview.png');
+    await page.locator('[data-testid="import-confirm"]').click();
     await page.waitForSelector('[data-testid="import-result"][data-kind="imported"]', { timeout: TIMEOUT });
     const lots = await api<LotSummary[]>('listLots');
     expect(lots).toHaveLength(1);
@@ -305,6 +320,7 @@ describe.skipIf(missing.length > 0)('triage in the browser', () => {
 
   it('says "already imported" when the same file comes again, and changes nothing', async () => {
     await page.locator('[data-testid="import-input"]').setInputFiles(DEMO_CSV);
+    await confirmImport();
     await page.waitForSelector('[data-testid="import-result"][data-kind="already"]', { timeout: TIMEOUT });
     expect(await page.locator('[data-testid="import-result"]').innerText()).toContain('already imported');
     expect(await api<LotSummary[]>('listLots')).toHaveLength(1);
@@ -320,6 +336,7 @@ describe.skipIf(missing.length > 0)('triage in the browser', () => {
     const envelope = decodePayload<{ ok: boolean; error?: { message: string } }>(new Uint8Array(await response.arrayBuffer()));
     expect(envelope.ok).toBe(false);
     await page.locator('[data-testid="import-input"]').setInputFiles(badFile);
+    await confirmImport();
     await page.waitForSelector('[data-testid="import-result"][data-kind="error"]', { timeout: TIMEOUT });
     const notice = await page.locator('[data-testid="import-result"]').innerText();
     expect(notice).toContain('Import of no-coordinates.csv failed');
@@ -340,6 +357,7 @@ describe.skipIf(missing.length > 0)('triage in the browser', () => {
     await page.waitForSelector('[data-testid="drop-overlay"]', { timeout: TIMEOUT });
     await shot('09-drop-overlay.png');
     await page.dispatchEvent('main', 'drop', { dataTransfer });
+    await confirmImport();
     await page.waitForSelector('[data-testid="drop-overlay"]', { state: 'detached', timeout: TIMEOUT });
     await expect.poll(async () => (await api<LotSummary[]>('listLots')).map((l) => l.lot), { timeout: TIMEOUT }).toContain('DROP-LOT-9');
     await expect.poll(() => page.locator('[data-testid="lot-picker"]').inputValue(), { timeout: TIMEOUT }).toBe('DROP-LOT-9');
@@ -361,6 +379,7 @@ describe.skipIf(missing.length > 0)('triage in the browser', () => {
     const bigFile = join(workDir, 'big-lot.csv');
     writeFileSync(bigFile, `${lines.join('\n')}\n`);
     await page.locator('[data-testid="import-input"]').setInputFiles(bigFile);
+    await confirmImport();
     await expect.poll(() => page.locator('[data-testid="lot-picker"]').inputValue(), { timeout: TIMEOUT }).toBe('BIG-LOT-3');
     await waitForWafer('W01');
     await expect.poll(async () => Number(await mapAttribute('data-die-count')), { timeout: TIMEOUT }).toBe(dies);

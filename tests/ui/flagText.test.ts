@@ -1,5 +1,6 @@
-// Words of the FA list and the export's file name. Oracles: the reason wording given in the
-// product brief ("Ioff_n high, robust z 8.1 (log10, limit 6)") and Microsoft's "Naming Files,
+// Words of the FA list and the export's file name. Oracles: the reason wording of the brief
+// (parameter, direction, method, score in robust sigmas with one decimal, the limit; AEC-Q001
+// part average testing names the method) and Microsoft's "Naming Files,
 // Paths, and Namespaces" (reserved characters < > : " / \ | ? * and device names CON, PRN, AUX,
 // NUL, COM1-9, LPT1-9).
 import { describe, expect, it } from 'vitest';
@@ -7,15 +8,15 @@ import type { Reason } from '../../src/core/analysis/types';
 import { describeReason, describeReasons, flaggedCsvFileName, safeFileStem, summariseReasons } from '../../src/ui/flagText';
 
 const reason = (over: Partial<Reason>): Reason => ({
-  method: 'robust-z', param: 'Ioff_n', value: 3.2e-10, score: 8.1, limit: 6, direction: 'high', scale: 'log10', ...over,
-});
+  method: 'pat-wafer', param: 'Ioff_n', value: 3.2e-10, score: 8.1, limit: 6, direction: 'high', scale: 'log10',
+  low: -11, high: -9.5, clipped: false, ...over,
+} as Reason);
 
 describe('reason text', () => {
-  it('says parameter, direction, robust z with one decimal and the limit, like the brief', () => {
-    // Brief: "Ioff_n high, robust z 8.1 (log10, limit 6)"; core may add a sign to the score.
-    expect(describeReason(reason({ score: 8.134 }))).toMatch(/^Ioff_n high, robust z \+?8\.1 \(log10, limit 6\)$/);
-    expect(describeReason(reason({ param: 'Vtsat_n', score: -7.25, direction: 'low', scale: 'linear' })))
-      .toMatch(/^Vtsat_n low, robust z -7\.3 \((linear, )?limit 6\)$/);
+  it('says parameter, direction, method, robust sigmas with one decimal and the limit', () => {
+    expect(describeReason(reason({ score: 8.134 }))).toMatch(/^Ioff_n high, PAT wafer \+?8\.1 robust sigma \(log10, limit 6\)$/);
+    expect(describeReason(reason({ param: 'Vtsat_n', score: -7.26, direction: 'low', scale: 'linear' })))
+      .toMatch(/^Vtsat_n low, PAT wafer -7\.3 robust sigma \((linear, )?limit 6\)$/);
   });
 
   it('lists the strongest reason first', () => {
@@ -28,7 +29,7 @@ describe('reason text', () => {
     const many = [6.1, 9.4, 7.7, 12.0, 6.6].map((score, k) => reason({ param: `P${k}`, score }));
     const summary = summariseReasons(many);
     expect(summary.split('; ')).toHaveLength(3);
-    expect(summary).toMatch(/^P3 high, robust z \+?12\.0 .*; P1 high, robust z \+?9\.4 .*; \(\+3 more\)$/);
+    expect(summary).toMatch(/^P3 high, PAT wafer \+?12\.0 .*; P1 high, PAT wafer \+?9\.4 .*; \(\+3 more\)$/);
     expect(summariseReasons(many.slice(0, 2))).not.toContain('more');
   });
 });

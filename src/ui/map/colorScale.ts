@@ -4,7 +4,7 @@
 // dies beyond it take the end colours.
 
 import { isCurrentUnit } from '../../core/params';
-import { quantileSorted } from '../../core/stats';
+import { selectQuantilesInPlace } from '../../core/stats';
 import { RAMP_STEPS } from './colorRamp';
 
 export interface ColourScale {
@@ -34,17 +34,21 @@ export function untransformValue(value: number, log: boolean): number {
   return log ? 10 ** value : value;
 }
 
-export function colourScaleFor(values: Float64Array, unit: string): ColourScale {
-  const log = isCurrentUnit(unit);
+/** 'auto' = log for currents, linear otherwise; the map's log/linear switch forces one. */
+export type ScaleMode = 'auto' | 'log' | 'linear';
+
+export function colourScaleFor(values: Float64Array, unit: string, mode: ScaleMode = 'auto'): ColourScale {
+  const log = mode === 'auto' ? isCurrentUnit(unit) : mode === 'log';
   const usable = new Float64Array(values.length);
   let count = 0;
   for (let i = 0; i < values.length; i++) {
     const t = transformValue(values[i], log);
     if (t === t) usable[count++] = t;
   }
-  const sorted = usable.subarray(0, count).sort();
-  let low = quantileSorted(sorted, RANGE_LOW_PERCENTILE) ?? NaN;
-  let high = quantileSorted(sorted, RANGE_HIGH_PERCENTILE) ?? NaN;
+  // Selection instead of a full sort: the two type-7 percentiles are all the scale needs.
+  const [q2, q98] = count > 0 ? selectQuantilesInPlace(usable.subarray(0, count), [RANGE_LOW_PERCENTILE, RANGE_HIGH_PERCENTILE]) : [NaN, NaN];
+  let low = q2;
+  let high = q98;
   if (count > 0 && !(high > low)) {
     // All values (nearly) equal: open the range a little so the ramp's middle is used.
     const pad = log ? 0.05 : Math.abs(low) * 0.01 || 1e-12;

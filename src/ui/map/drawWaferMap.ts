@@ -106,6 +106,11 @@ function notchSize(layout: MapLayout): number {
   return Math.max(5, layout.radius * 0.035);
 }
 
+export type NotchSide = 'down' | 'up' | 'left' | 'right';
+
+/** Rotation that takes the bottom of the wafer to the notch side (canvas angles, clockwise). */
+const NOTCH_ANGLE: Record<NotchSide, number> = { down: 0, left: Math.PI / 2, up: Math.PI, right: -Math.PI / 2 };
+
 export interface BaseDrawing {
   /** Die cells actually painted. */
   painted: number;
@@ -115,7 +120,7 @@ export interface BaseDrawing {
 /** Draws wafer disc, dies, cell gaps, outline and the notch at 6 o'clock. */
 export function drawWaferBase(canvas: HTMLCanvasElement, width: number, height: number, layout: MapLayout,
   values: Float64Array | undefined, scale: ColourScale | undefined, table: Uint8ClampedArray,
-  theme: MapTheme): BaseDrawing {
+  theme: MapTheme, notch: NotchSide = 'down'): BaseDrawing {
   const started = performance.now();
   const context = prepareCanvas(canvas, width, height);
   const { grid, cell } = layout;
@@ -157,9 +162,13 @@ export function drawWaferBase(canvas: HTMLCanvasElement, width: number, height: 
   context.lineWidth = 1.5;
   context.stroke();
 
-  // Notch at the bottom: a small V cut into the edge.
+  // Notch: a small V cut into the edge, drawn at the bottom of a frame turned to the notch side.
   const half = notchSize(layout);
   const bottom = layout.centreY + layout.radius;
+  context.save();
+  context.translate(layout.centreX, layout.centreY);
+  context.rotate(NOTCH_ANGLE[notch]);
+  context.translate(-layout.centreX, -layout.centreY);
   context.beginPath();
   context.moveTo(layout.centreX - half, bottom + 1);
   context.lineTo(layout.centreX, bottom - half * 1.2);
@@ -174,6 +183,7 @@ export function drawWaferBase(canvas: HTMLCanvasElement, width: number, height: 
   context.strokeStyle = theme.waferEdge;
   context.lineWidth = 1.5;
   context.stroke();
+  context.restore();
   return { painted, milliseconds: performance.now() - started };
 }
 
@@ -193,8 +203,24 @@ export function flagMarkFor(cell: number): FlagMark {
  * around the cell.
  */
 export function drawWaferMarks(canvas: HTMLCanvasElement, width: number, height: number, layout: MapLayout,
-  x: Int32Array, y: Int32Array, selected: Iterable<number>, flagged: readonly number[], theme: MapTheme): void {
+  x: Int32Array, y: Int32Array, selected: Iterable<number>, flagged: readonly number[], theme: MapTheme,
+  options: MarkOptions = {}): void {
   const context = prepareCanvas(canvas, width, height);
+  options.beforeFlags?.(context);
+  const groups = options.flagGroups ?? [{ colour: theme.flag, dies: flagged }];
+  for (const group of groups) drawFlagGroup(context, layout, x, y, group.dies, { ...theme, flag: group.colour });
+  drawSelection(context, layout, x, y, selected, theme);
+}
+
+export interface MarkOptions {
+  /** Flagged dies by colour (mechanism); without it every flagged die takes the theme's flag colour. */
+  flagGroups?: { colour: string; dies: readonly number[] }[];
+  /** Drawn first, under the flags and the selection (zone rings, reticle grid, probe sites). */
+  beforeFlags?: (context: CanvasRenderingContext2D) => void;
+}
+
+function drawFlagGroup(context: CanvasRenderingContext2D, layout: MapLayout, x: Int32Array, y: Int32Array,
+  flagged: readonly number[], theme: MapTheme): void {
   const cell = layout.cell;
   if (flagged.length) {
     const mark = flagMarkFor(cell);
@@ -239,6 +265,11 @@ export function drawWaferMarks(canvas: HTMLCanvasElement, width: number, height:
       context.stroke();
     }
   }
+}
+
+function drawSelection(context: CanvasRenderingContext2D, layout: MapLayout, x: Int32Array, y: Int32Array,
+  selected: Iterable<number>, theme: MapTheme): void {
+  const cell = layout.cell;
   // Outlines grow by a pixel on small cells so that a single selected die is still seen.
   const grow = cell < 6 ? 1.5 : 0;
   const path = new Path2D();

@@ -68,3 +68,42 @@ export function dieCentreTransform(layout: MapLayout): [number, number, number, 
     : layout.top + (0.5 - layout.grid.minY) * layout.cell;
   return [ax, layout.cell, ay, layout.yUp ? -layout.cell : layout.cell];
 }
+
+/** Zoom and pan of the map view: screen = centre + (unzoomed - centre) * zoom + pan. */
+export interface MapView {
+  zoom: number;
+  panX: number;
+  panY: number;
+}
+
+export const IDENTITY_VIEW: MapView = { zoom: 1, panX: 0, panY: 0 };
+export const MIN_ZOOM = 1;
+export const MAX_ZOOM = 40;
+
+/** The layout seen through a zoom and pan about the canvas centre (width/2, height/2). */
+export function viewedLayout(base: MapLayout, view: MapView, width: number, height: number): MapLayout {
+  if (view.zoom === 1 && view.panX === 0 && view.panY === 0) return base;
+  const cx = width / 2, cy = height / 2;
+  const sx = (v: number) => cx + (v - cx) * view.zoom + view.panX;
+  const sy = (v: number) => cy + (v - cy) * view.zoom + view.panY;
+  return {
+    ...base,
+    cell: base.cell * view.zoom,
+    left: sx(base.left),
+    top: sy(base.top),
+    centreX: sx(base.centreX),
+    centreY: sy(base.centreY),
+    radius: base.radius * view.zoom,
+  };
+}
+
+/** New view after zooming by `factor` while keeping the screen point (px, py) where it is. */
+export function zoomAbout(view: MapView, factor: number, px: number, py: number, width: number, height: number): MapView {
+  const zoom = Math.min(MAX_ZOOM, Math.max(MIN_ZOOM, view.zoom * factor));
+  if (zoom === MIN_ZOOM) return { ...IDENTITY_VIEW };
+  const cx = width / 2, cy = height / 2;
+  // The unzoomed point under the cursor, then the pan that puts it back under the cursor.
+  const bx = cx + (px - cx - view.panX) / view.zoom;
+  const by = cy + (py - cy - view.panY) / view.zoom;
+  return { zoom, panX: px - cx - (bx - cx) * zoom, panY: py - cy - (by - cy) * zoom };
+}

@@ -2,9 +2,9 @@
 
 import * as echarts from 'echarts/core';
 import { LineChart, ScatterChart } from 'echarts/charts';
-import { BrushComponent, GridComponent, LegendComponent } from 'echarts/components';
+import { BrushComponent, GraphicComponent, GridComponent, LegendComponent } from 'echarts/components';
 import { CanvasRenderer } from 'echarts/renderers';
 
-echarts.use([ScatterChart, LineChart, GridComponent, LegendComponent, BrushComponent, CanvasRenderer]);
+echarts.use([ScatterChart, LineChart, GridComponent, LegendComponent, BrushComponent, GraphicComponent, CanvasRenderer]);
 
 export { echarts };

@@ -4,8 +4,10 @@
 
 import { computed, reactive, shallowRef } from 'vue';
 import type {
-  AppInfo, LotAnalysis, LotSummary, OffstateApi, ProgressEvent, WaferFrame, WaferSummary,
+  AppInfo, FaEdit, LotAnalysis, LotSummary, OffstateApi, ProgressEvent, StoredSettings, WaferColumn, WaferFrame, WaferSummary,
 } from '../../shared/api';
+import { buildFaList, dieKey } from '../fa/faList';
+import type { ImportPreview } from '../../shared/api';
 import type { FlaggedDie, WaferAnalysis } from '../../core/analysis/types';
 import type { Transport } from '../transport';
 import { formatQuantity } from '../format';
@@ -21,6 +23,33 @@ export interface ProgressView {
 }
 
 export type { ImportNotice };
+
+export type ViewName = 'overview' | 'wafer' | 'sites' | 'fa' | 'settings';
+export const VIEWS: readonly { name: ViewName; title: string }[] = [
+  { name: 'overview', title: 'Lot overview' },
+  { name: 'wafer', title: 'Wafer' },
+  { name: 'sites', title: 'Sites & trend' },
+  { name: 'fa', title: 'FA list' },
+  { name: 'settings', title: 'Settings' },
+];
+export type MapTool = 'box' | 'lasso' | 'pan';
+
+/** Trade-off points of a whole lot: x = log10 |Ioff| (A), y = |Ion| in uA, and each point's wafer. */
+export interface LotPairPoints {
+  lot: string;
+  ion: string;
+  ioff: string;
+  x: Float64Array;
+  y: Float64Array;
+  wafer: Int32Array;
+  wafers: string[];
+}
+export type ThemeName = 'light' | 'dark';
+const THEME_STORAGE_KEY = 'offstate.theme';
+
+function storedTheme(): ThemeName {
+  try { return localStorage.getItem(THEME_STORAGE_KEY) === 'dark' ? 'dark' : 'light'; } catch { return 'light'; }
+}
 
 const FRAME_CACHE_SIZE = 6;
 
@@ -48,7 +77,20 @@ export function createWorkspace(transport: Transport) {
     importNotice: null as ImportNotice | null,
     progress: null as ProgressView | null,
     yUp: true,
+    view: 'wafer' as ViewName,
+    theme: storedTheme(),
+    mapTool: 'box' as MapTool,
+    settingsSaving: false,
+    lotColumnsLoading: false,
   });
+  const settings = shallowRef<StoredSettings | null>(null);
+  /** Files waiting for the engineer to confirm the column preview. */
+  const pendingImport = shallowRef<{ files: File[]; preview: ImportPreview | null; error: string | null } | null>(null);
+  const faEdits = shallowRef<FaEdit[]>([]);
+  const lotColumns = shallowRef<WaferColumn[] | null>(null);
+  let lotColumnsKey = '';
+  /** Ion-Ioff points of every wafer of the lot, for the trade-off plot coloured by wafer. */
+  const lotPairs = shallowRef<LotPairPoints | null>(null);
   const analysis = shallowRef<LotAnalysis | null>(null);
   const frame = shallowRef<WaferFrame | null>(null);
   const selection = shallowRef<ReadonlySet<number>>(new Set());
@@ -71,6 +113,16 @@ export function createWorkspace(transport: Transport) {
     for (const w of analysis.value?.wafers ?? []) if (w.lot === state.lot) counts.set(w.wafer, w.flaggedCount);
     return counts;
   });
+
+  /** Probe site of a die of a loaded wafer (-1 when that wafer is not loaded). */
+  function siteOf(wafer: string, index: number): number {
+    const f = frame.value?.wafer === wafer ? frame.value : frameCache.get(`${state.lot}\u0000${wafer}`);
+    return f && index >= 0 && index < f.site.length ? f.site[index] : -1;
+  }
+  const faList = computed(() => (state.lot
+    ? buildFaList(state.lot, analysis.value?.flagged ?? [], faEdits.value, siteOf)
+    : { rows: [], removed: [] }));
+  const faKeys = computed(() => new Set(faList.value.rows.map((r) => dieKey(r.wafer, r.index))));
 
   function choosePreferredParam(names: string[]): string | null {
     if (state.param && names.includes(state.param)) return state.param;
@@ -144,7 +196,13 @@ export function createWorkspace(transport: Transport) {
     frame.value = null;
     analysis.value = null;
     selection.value = new Set();
+    faEdits.value = [];
+    lotColumns.value = null;
+    lotColumnsKey = '';
+    lotPairs.value = null;
     setStatus(`Loading lot ${lot}…`);
+    api.getFaEdits(lot).then((edits) => { if (request === lotRequest) faEdits.value = edits; })
+      .catch((error) => setStatus(`Could not read the FA edits of lot ${lot}: ${errorText(error)}`, true));
     try {
       const wafers = await api.listWafers(lot);
       if (request !== lotRequest) return;
@@ -163,6 +221,12 @@ export function createWorkspace(transport: Transport) {
     api.onProgress(onProgress);
     try {
       state.info = await api.getInfo();
+      try {
+        settings.value = await api.getSettings();
+        state.yUp = settings.value.display.yUp;
+      } catch (error) {
+        setStatus(`Could not read the settings: ${errorText(error)}`, true);
+      }
       await refreshLots();
       if (state.lots.length) await selectLot(state.lots[0].lot);
       else setStatus('No lot yet.');
@@ -206,10 +270,39 @@ export function createWorkspace(transport: Transport) {
     if (reasonParam && params.value.some((p) => p.name === reasonParam)) state.param = reasonParam;
   }
 
+  const IMPORTABLE = /\.(csv|tsv|txt|stdf|std)$/i;
+
+  /** Shows how the first file's columns will be read (when the back end can say), then imports on confirm. */
+  async function requestImport(files: File[]): Promise<void> {
+    const accepted = files.filter((f) => IMPORTABLE.test(f.name));
+    if (!accepted.length || !api.previewBytes) { await importFiles(files); return; }
+    pendingImport.value = { files: accepted, preview: null, error: null };
+    try {
+      const head = new Uint8Array(await accepted[0].slice(0, 256 * 1024).arrayBuffer());
+      let binary = '';
+      for (let i = 0; i < head.length; i += 0x8000) binary += String.fromCharCode(...head.subarray(i, i + 0x8000));
+      const preview = await api.previewBytes(accepted[0].name, btoa(binary));
+      if (pendingImport.value?.files === accepted) pendingImport.value = { files: accepted, preview, error: null };
+    } catch (error) {
+      if (pendingImport.value?.files === accepted) pendingImport.value = { files: accepted, preview: null, error: errorText(error) };
+    }
+  }
+
+  function confirmImport(): void {
+    const pending = pendingImport.value;
+    pendingImport.value = null;
+    if (pending) void importFiles(pending.files);
+  }
+
+  function cancelImport(): void {
+    if (pendingImport.value) setStatus('Import cancelled.');
+    pendingImport.value = null;
+  }
+
   async function importFiles(files: File[]): Promise<void> {
-    const accepted = files.filter((f) => /\.(csv|tsv|txt)$/i.test(f.name));
+    const accepted = files.filter((f) => IMPORTABLE.test(f.name));
     if (!accepted.length) {
-      state.importNotice = { kind: 'error', text: 'Offstate imports .csv, .tsv and .txt files.', details: files.map((f) => f.name) };
+      state.importNotice = { kind: 'error', text: 'Offstate imports .csv, .tsv, .txt and STDF (.stdf, .std) files.', details: files.map((f) => f.name) };
       return;
     }
     state.importing = true;
@@ -268,7 +361,132 @@ export function createWorkspace(transport: Transport) {
     try { await api.cancelJob(job.jobId); } catch (error) { setStatus(`Could not cancel: ${errorText(error)}`, true); }
   }
 
+  function setView(view: ViewName): void {
+    state.view = view;
+    if (view === 'overview') void loadLotColumns();
+  }
+
+  function stepView(step: 1 | -1): void {
+    const at = VIEWS.findIndex((v) => v.name === state.view);
+    setView(VIEWS[(at + step + VIEWS.length) % VIEWS.length].name);
+  }
+
+  function setTheme(theme: ThemeName): void {
+    state.theme = theme;
+    try { localStorage.setItem(THEME_STORAGE_KEY, theme); } catch { /* kept for this page only */ }
+  }
+
+  /** One parameter of every wafer of the lot, for the overview (cached per lot and parameter). */
+  async function loadLotColumns(): Promise<void> {
+    const lot = state.lot;
+    const param = state.param ?? lotSummary.value?.params[0]?.name;
+    if (!lot || !param) return;
+    const key = `${lot}\u0000${param}`;
+    if (key === lotColumnsKey) return;
+    lotColumnsKey = key;
+    state.lotColumnsLoading = true;
+    try {
+      const columns = await api.getLotColumn(lot, param);
+      if (lotColumnsKey === key) lotColumns.value = columns;
+    } catch (error) {
+      if (lotColumnsKey === key) { lotColumnsKey = ''; setStatus(`Could not load the lot overview: ${errorText(error)}`, true); }
+    } finally {
+      if (lotColumnsKey === key || lotColumnsKey === '') state.lotColumnsLoading = false;
+    }
+  }
+
+  async function loadLotPairs(ion: string, ioff: string): Promise<void> {
+    const lot = state.lot;
+    if (!lot) return;
+    const have = lotPairs.value;
+    if (have && have.lot === lot && have.ion === ion && have.ioff === ioff) return;
+    try {
+      const [ions, ioffs] = await Promise.all([api.getLotColumn(lot, ion), api.getLotColumn(lot, ioff)]);
+      if (state.lot !== lot) return;
+      const total = ions.reduce((n, c) => n + c.values.length, 0);
+      const x = new Float64Array(total), y = new Float64Array(total), wafer = new Int32Array(total);
+      let count = 0;
+      ions.forEach((c, w) => {
+        const off = ioffs[w]?.values;
+        if (!off) return;
+        for (let i = 0; i < c.values.length; i++) {
+          const a = Math.abs(off[i]), b = Math.abs(c.values[i]);
+          if (!(a > 0) || !Number.isFinite(a) || !Number.isFinite(b)) continue;
+          x[count] = Math.log10(a); y[count] = b * 1e6; wafer[count] = w; count++;
+        }
+      });
+      lotPairs.value = { lot, ion, ioff, x: x.slice(0, count), y: y.slice(0, count), wafer: wafer.slice(0, count), wafers: ions.map((c) => c.wafer) };
+    } catch (error) {
+      setStatus(`Could not load the lot's trade-off points: ${errorText(error)}`, true);
+    }
+  }
+
+  /** Stores settings in the database and analyses the open lot again with them. */
+  async function saveSettings(next: StoredSettings): Promise<void> {
+    state.settingsSaving = true;
+    try {
+      settings.value = await api.saveSettings(next);
+      state.yUp = settings.value.display.yUp;
+      setStatus('Settings saved; analysing again…');
+      if (state.lot) await runAnalysis(state.lot, lotRequest);
+    } catch (error) {
+      setStatus(`Could not save the settings: ${errorText(error)}`, true);
+    } finally {
+      state.settingsSaving = false;
+    }
+  }
+
+  async function storeFaEdits(edits: FaEdit[]): Promise<void> {
+    if (!state.lot) return;
+    const lot = state.lot;
+    try {
+      const stored = await api.saveFaEdits(lot, edits);
+      if (state.lot === lot) faEdits.value = stored;
+    } catch (error) {
+      setStatus(`Could not save the FA list edit: ${errorText(error)}`, true);
+    }
+  }
+
+  /** Adds dies of the open wafer to the FA list by hand. */
+  async function addToFa(dies: Iterable<number>, note: string): Promise<void> {
+    const f = frame.value;
+    if (!f || !state.lot) return;
+    const at = new Date().toISOString();
+    const added: FaEdit[] = [];
+    for (const index of dies) {
+      if (index < 0 || index >= f.x.length || faKeys.value.has(dieKey(f.wafer, index))) continue;
+      added.push({ action: 'add', wafer: f.wafer, x: f.x[index], y: f.y[index], index, note, at });
+    }
+    if (!added.length) { setStatus('Those dies are on the FA list already.'); return; }
+    await storeFaEdits([...faEdits.value, ...added]);
+    setStatus(`Added ${formatQuantity(added.length, 'die', 'dies')} to the FA list.`);
+  }
+
+  /** Takes dies off the FA list by hand. */
+  async function removeFromFa(dies: { wafer: string; index: number; x: number; y: number }[], note: string): Promise<void> {
+    const at = new Date().toISOString();
+    const removed: FaEdit[] = dies.map((d) => ({ action: 'remove', wafer: d.wafer, x: d.x, y: d.y, index: d.index, note, at }));
+    if (!removed.length) return;
+    await storeFaEdits([...faEdits.value, ...removed]);
+    setStatus(`Removed ${formatQuantity(removed.length, 'die', 'dies')} from the FA list.`);
+  }
+
+  /** Puts a removed die back (an "add" edit that undoes the removal). */
+  async function restoreToFa(die: { wafer: string; index: number; x: number; y: number }): Promise<void> {
+    await storeFaEdits([...faEdits.value, { action: 'add', wafer: die.wafer, x: die.x, y: die.y, index: die.index, note: 'restored', at: new Date().toISOString() }]);
+  }
+
+  /** Every loaded or loadable frame of the lot's FA rows' wafers (for exports that need values). */
+  async function framesFor(wafers: Iterable<string>): Promise<Map<string, WaferFrame>> {
+    const out = new Map<string, WaferFrame>();
+    if (!state.lot) return out;
+    for (const w of new Set(wafers)) out.set(w, await loadFrame(state.lot, w));
+    return out;
+  }
+
   return {
+    settings, faEdits, faList, faKeys, lotColumns, lotPairs, loadLotPairs, pendingImport, requestImport, confirmImport, cancelImport,
+    setView, stepView, setTheme, loadLotColumns, saveSettings, addToFa, removeFromFa, restoreToFa, framesFor,
     state, analysis, frame, selection,
     lotSummary, params, paramInfo, waferAnalysis, flaggedOnWafer, flaggedByIndex, flaggedCountByWafer,
     start, selectLot, selectWafer, stepWafer, stepParam, setParam, setSelection, clearSelection,

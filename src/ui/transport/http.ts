@@ -82,6 +82,15 @@ export function createHttpApi(token: string): OffstateApi {
     },
     exportFlaggedCsv: (lot) => call('exportFlaggedCsv', [lot]),
     cancelJob: (jobId) => call('cancelJob', [jobId]),
+    previewImport: (path, mapping) => call('previewImport', mapping === undefined ? [path] : [path, mapping]),
+    previewBytes: (name, headBase64, mapping) => call('previewBytes', mapping === undefined ? [name, headBase64] : [name, headBase64, mapping]),
+    listMappings: () => call('listMappings', []),
+    saveMapping: (name, mapping) => call('saveMapping', [name, mapping]),
+    getLotColumn: (lot, param) => call('getLotColumn', [lot, param]),
+    getSettings: () => call('getSettings', []),
+    saveSettings: (settings) => call('saveSettings', [settings]),
+    getFaEdits: (lot) => call('getFaEdits', [lot]),
+    saveFaEdits: (lot, edits) => call('saveFaEdits', [lot, edits]),
     onProgress(listener) {
       listeners.add(listener);
       if (!source) openEvents();
