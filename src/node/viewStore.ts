@@ -8,6 +8,7 @@ import { DEFAULT_DISPLAY_SETTINGS, type DisplaySettings, type FaEdit, type Store
 import { ArgumentError } from '../shared/validate';
 import type { Db } from './store/database';
 import { getSetting, listWaferNames, NotFoundError, setSetting } from './store/repository';
+import { float64Of, int32Of } from './store/blobs';
 
 const ANALYSIS_KEY = 'analysis';
 const DISPLAY_KEY = 'display';
@@ -87,17 +88,7 @@ export function writeFaEdits(db: Db, lot: string, edits: FaEdit[]): FaEdit[] {
   return readFaEdits(db, lot);
 }
 
-function float64Of(blob: Buffer): Float64Array {
-  const copy = new Float64Array(blob.byteLength / 8);
-  new Uint8Array(copy.buffer).set(blob);
-  return copy;
-}
 
-function int32Of(blob: Buffer): Int32Array {
-  const copy = new Int32Array(blob.byteLength / 4);
-  new Uint8Array(copy.buffer).set(blob);
-  return copy;
-}
 
 /** One parameter of every wafer (natural wafer order), reading only that parameter's blobs. */
 export function loadLotColumn(db: Db, lot: string, param: string): WaferColumn[] {
