@@ -11,6 +11,7 @@ import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { decodePayload } from '../../src/shared/codec';
 import type { LotAnalysis, LotSummary, WaferFrame, WaferSummary } from '../../src/shared/api';
 import { DEMO_CSV, ROOT, scratchDir } from '../support/paths';
+import { parseCsv } from './harness';
 
 const CHROMIUM = '/usr/bin/chromium';
 const SERVER = join(ROOT, 'dist', 'node', 'server.mjs');
@@ -69,26 +70,6 @@ function readEngineering(text: string, unit: string): number | undefined {
   const match = new RegExp(`^(-?\\d+(?:\\.\\d+)?)\\s*([afpnuµmk]?)${unit}$`).exec(trimmed);
   if (!match) throw new Error(`cannot read "${text}" as a value in ${unit}`);
   return Number(match[1]) * SI_PREFIX[match[2]];
-}
-
-/** RFC 4180 records (quoted fields may hold commas, doubled quotes and line breaks). */
-function parseCsv(text: string): string[][] {
-  const records: string[][] = [];
-  let field = '';
-  let record: string[] = [];
-  let quoted = false;
-  for (let i = 0; i < text.length; i++) {
-    const c = text[i];
-    if (quoted) {
-      if (c === '"' && text[i + 1] === '"') { field += '"'; i++; } else if (c === '"') quoted = false; else field += c;
-    } else if (c === '"') quoted = true;
-    else if (c === ',') { record.push(field); field = ''; } else if (c === '\n' || c === '\r') {
-      if (c === '\r' && text[i + 1] === '\n') i++;
-      record.push(field); records.push(record); record = []; field = '';
-    } else field += c;
-  }
-  if (field !== '' || record.length) { record.push(field); records.push(record); }
-  return records;
 }
 
 const mapCanvas = () => page.locator('[data-testid="wafer-map"]');

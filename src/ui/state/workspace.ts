@@ -4,7 +4,7 @@
 
 import { computed, reactive, shallowRef } from 'vue';
 import type {
-  AppInfo, FaEdit, LotAnalysis, LotSummary, OffstateApi, ProgressEvent, StoredSettings, WaferColumn, WaferFrame, WaferSummary,
+  AppInfo, ColumnMapping, FaEdit, LotAnalysis, LotSummary, OffstateApi, ProgressEvent, StoredSettings, WaferColumn, WaferFrame, WaferSummary,
 } from '../../shared/api';
 import { buildFaList, dieKey } from '../fa/faList';
 import type { ImportPreview } from '../../shared/api';
@@ -85,7 +85,7 @@ export function createWorkspace(transport: Transport) {
   });
   const settings = shallowRef<StoredSettings | null>(null);
   /** Files waiting for the engineer to confirm the column preview. */
-  const pendingImport = shallowRef<{ files: File[]; preview: ImportPreview | null; error: string | null } | null>(null);
+  const pendingImport = shallowRef<{ files: File[]; preview: ImportPreview | null; error: string | null; head?: string } | null>(null);
   const faEdits = shallowRef<FaEdit[]>([]);
   const lotColumns = shallowRef<WaferColumn[] | null>(null);
   let lotColumnsKey = '';
@@ -278,20 +278,48 @@ export function createWorkspace(transport: Transport) {
     if (!accepted.length || !api.previewBytes) { await importFiles(files); return; }
     pendingImport.value = { files: accepted, preview: null, error: null };
     try {
-      const head = new Uint8Array(await accepted[0].slice(0, 256 * 1024).arrayBuffer());
+      const bytes = new Uint8Array(await accepted[0].slice(0, 256 * 1024).arrayBuffer());
       let binary = '';
-      for (let i = 0; i < head.length; i += 0x8000) binary += String.fromCharCode(...head.subarray(i, i + 0x8000));
-      const preview = await api.previewBytes(accepted[0].name, btoa(binary));
-      if (pendingImport.value?.files === accepted) pendingImport.value = { files: accepted, preview, error: null };
+      for (let i = 0; i < bytes.length; i += 0x8000) binary += String.fromCharCode(...bytes.subarray(i, i + 0x8000));
+      const head = btoa(binary);
+      const preview = await api.previewBytes(accepted[0].name, head);
+      if (pendingImport.value?.files === accepted) pendingImport.value = { files: accepted, preview, error: null, head };
     } catch (error) {
       if (pendingImport.value?.files === accepted) pendingImport.value = { files: accepted, preview: null, error: errorText(error) };
     }
   }
 
-  function confirmImport(): void {
+  /** Reads the first file again with the user's corrected mapping, so the dialog shows the result. */
+  async function recheckImport(mapping: ColumnMapping): Promise<void> {
+    const pending = pendingImport.value;
+    if (!pending?.head || !api.previewBytes) return;
+    try {
+      const preview = await api.previewBytes(pending.files[0].name, pending.head, mapping);
+      if (pendingImport.value === pending) pendingImport.value = { ...pending, preview, error: null };
+    } catch (error) {
+      if (pendingImport.value === pending) pendingImport.value = { ...pending, error: errorText(error) };
+    }
+  }
+
+  /**
+   * Imports the pending files. A corrected mapping is saved under the given name first: the back
+   * end applies a saved mapping to every file with the same header line, in both transports and
+   * in the command line (--mapping NAME), so the correction holds for the next file too.
+   */
+  async function confirmImport(correction?: { mapping: ColumnMapping; name: string }): Promise<void> {
     const pending = pendingImport.value;
     pendingImport.value = null;
-    if (pending) void importFiles(pending.files);
+    if (!pending) return;
+    if (correction && api.saveMapping) {
+      try {
+        await api.saveMapping(correction.name, correction.mapping);
+        setStatus(`Mapping "${correction.name}" saved; it is used for every file with these columns.`);
+      } catch (error) {
+        state.importNotice = { kind: 'error', text: `The mapping could not be saved: ${errorText(error)}`, details: [] };
+        return;
+      }
+    }
+    await importFiles(pending.files);
   }
 
   function cancelImport(): void {
@@ -490,7 +518,7 @@ export function createWorkspace(transport: Transport) {
     state, analysis, frame, selection,
     lotSummary, params, paramInfo, waferAnalysis, flaggedOnWafer, flaggedByIndex, flaggedCountByWafer,
     start, selectLot, selectWafer, stepWafer, stepParam, setParam, setSelection, clearSelection,
-    openFlagged, importFiles, flaggedCsv, cancelProgressJob, setStatus,
+    openFlagged, importFiles, recheckImport, flaggedCsv, cancelProgressJob, setStatus,
   };
 }
 
