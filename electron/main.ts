@@ -35,6 +35,7 @@ async function start(): Promise<void> {
     mode: 'desktop',
     workerUrl: pathToFileURL(join(projectRoot(), 'dist', 'node', 'worker.mjs')),
     nativeBinding: process.env.OFFSTATE_SQLITE_BINDING,
+    recentFile: join(dataDir, 'recent-databases.json'),
   });
   registerIpc(service, contents);
   if (process.argv.includes('--demo')) {
@@ -51,8 +52,22 @@ async function start(): Promise<void> {
       await service.importFile(path).catch((error: Error) => dialog.showErrorBox('Import failed', error.message));
     }
   };
+  const openChosenDatabase = async () => {
+    const choice = await dialog.showOpenDialog({ title: 'Open an Offstate database', properties: ['openFile', 'promptToCreate'], filters: [{ name: 'Offstate database', extensions: ['sqlite', 'db'] }] });
+    if (choice.canceled || !choice.filePaths[0]) return;
+    try {
+      await service.openDatabase(choice.filePaths[0]);
+      mainWindow?.webContents.reload();
+    } catch (error) {
+      dialog.showErrorBox('Database not opened', (error as Error).message);
+    }
+  };
   Menu.setApplicationMenu(Menu.buildFromTemplate([
-    { label: 'File', submenu: [{ label: 'Import…', accelerator: 'CmdOrCtrl+O', click: () => void importChosen() }, { type: 'separator' }, { role: 'quit' }] },
+    { label: 'File', submenu: [
+      { label: 'Import…', accelerator: 'CmdOrCtrl+O', click: () => void importChosen() },
+      { label: 'Open database…', accelerator: 'CmdOrCtrl+Shift+O', click: () => void openChosenDatabase() },
+      { type: 'separator' }, { role: 'quit' },
+    ] },
     { role: 'editMenu' }, { role: 'viewMenu' }, { role: 'windowMenu' },
   ]));
   mainWindow = new BrowserWindow({

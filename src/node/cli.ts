@@ -13,7 +13,7 @@ import type { ImportPreview } from '../core/import';
 import { analyzeStoredLot } from './analysisStore';
 import { OffstateService } from './service';
 import { startServer } from './server';
-import { defaultDatabasePath, demoLotPath, uiDir } from './paths';
+import { defaultDatabasePath, demoLotPath, recentDatabasesFile, uiDir } from './paths';
 import { VERSION } from './version';
 import { flaggedCsv, safeFileName } from '../core/export';
 import { writeNewFile } from './files';
@@ -189,7 +189,7 @@ async function analyzeCommand(files: string[], json: boolean, dbOption: string |
 async function serveCommand(dbOption: string | undefined, port: number, demo: boolean): Promise<number> {
   const dbPath = resolve(dbOption ?? defaultDatabasePath());
   mkdirSync(dirname(dbPath), { recursive: true });
-  const service = new OffstateService({ dbPath, mode: 'browser', workerUrl: new URL('./worker.mjs', import.meta.url) });
+  const service = new OffstateService({ dbPath, mode: 'browser', workerUrl: new URL('./worker.mjs', import.meta.url), recentFile: process.env.OFFSTATE_RECENT_FILE ?? recentDatabasesFile() });
   if (demo) {
     const result = await service.importFile(demoLotPath());
     process.stdout.write(result.status === 'imported' ? `Demo lot imported into ${dbPath}.\n` : `Demo lot already in ${dbPath}.\n`);

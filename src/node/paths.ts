@@ -30,3 +30,8 @@ export function demoLotPath(): string {
 export function uiDir(): string {
   return join(projectRoot(), 'dist', 'ui');
 }
+
+/** Where the list of recently opened databases is kept (beside the default database). */
+export function recentDatabasesFile(): string {
+  return join(dirname(defaultDatabasePath()), 'recent-databases.json');
+}

@@ -6,7 +6,7 @@ import { mkdirSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
 import { OffstateService } from './service';
 import { startServer } from './server';
-import { defaultDatabasePath, demoLotPath, uiDir } from './paths';
+import { defaultDatabasePath, demoLotPath, recentDatabasesFile, uiDir } from './paths';
 
 async function run(): Promise<void> {
   const { values } = parseArgs({
@@ -14,7 +14,7 @@ async function run(): Promise<void> {
   });
   const dbPath = resolve(values.db ?? defaultDatabasePath());
   mkdirSync(dirname(dbPath), { recursive: true });
-  const service = new OffstateService({ dbPath, mode: 'browser', workerUrl: new URL('./worker.mjs', import.meta.url) });
+  const service = new OffstateService({ dbPath, mode: 'browser', workerUrl: new URL('./worker.mjs', import.meta.url), recentFile: process.env.OFFSTATE_RECENT_FILE ?? recentDatabasesFile() });
   const files = [...(values.demo ? [demoLotPath()] : []), ...(values.import ?? [])];
   for (const file of files) {
     const result = await service.importFile(file);

@@ -1,14 +1,15 @@
 // The Node-side implementation of the API contract. Both transports (Electron IPC and the local
 // browser mode) wrap one instance; neither computes anything itself.
 
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs';
+import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
-import { basename, join } from 'node:path';
+import { rememberDatabase, readRecentDatabases } from './recentDatabases';
+import { basename, dirname, join, resolve } from 'node:path';
 import { randomUUID } from 'node:crypto';
 import { magnitudes } from '../core/analysis';
 import { flaggedCsv } from '../core/export';
 import { median } from '../core/stats';
-import type { AppInfo, ColumnMapping, ImportFileOptions, ImportPreview, ImportResult, LotAnalysis, LotSummary, OffstateApi, ProgressEvent, SavedMapping, WaferFrame, WaferSummary } from '../shared/api';
+import type { AppInfo, DatabaseList, ColumnMapping, ImportFileOptions, ImportPreview, ImportResult, LotAnalysis, LotSummary, OffstateApi, ProgressEvent, SavedMapping, WaferFrame, WaferSummary } from '../shared/api';
 import { openDatabase, StoreError, type Db } from './store/database';
 import { listLots, listWaferNames, loadWafer, NotFoundError } from './store/repository';
 import { importAnyFile, previewFile, previewHead } from './importAny';
@@ -25,10 +26,12 @@ export interface ServiceOptions {
   /** Worker script for long jobs; without it jobs run in this thread (tests, small tools). */
   workerUrl?: URL;
   nativeBinding?: string;
+  /** File keeping the recently opened databases; without it only the current one is listed. */
+  recentFile?: string;
 }
 
 export class OffstateService implements OffstateApi {
-  private readonly db: Db;
+  private db: Db;
   private readonly listeners = new Set<(event: ProgressEvent) => void>();
   private readonly jobs = new Map<string, { cancel(): void }>();
   private readonly analysisCache = new Map<string, { version: number; result: Promise<LotAnalysis> }>();
@@ -37,8 +40,31 @@ export class OffstateService implements OffstateApi {
   /** Imports run one at a time: each holds the write transaction while it streams. */
   private importQueue: Promise<unknown> = Promise.resolve();
 
-  constructor(private readonly options: ServiceOptions) {
+  private readonly options: ServiceOptions;
+
+  constructor(options: ServiceOptions) {
+    this.options = { ...options };
     this.db = openDatabase(options.dbPath, { nativeBinding: options.nativeBinding });
+    if (options.recentFile) rememberDatabase(options.recentFile, options.dbPath);
+  }
+
+  async listDatabases(): Promise<DatabaseList> {
+    return { current: this.options.dbPath, recent: this.options.recentFile ? readRecentDatabases(this.options.recentFile) : [this.options.dbPath] };
+  }
+
+  async openDatabase(path: string): Promise<AppInfo> {
+    if (this.jobs.size > 0) throw new StoreError('An import or analysis is still running; open the other database when it has finished.');
+    const target = resolve(path);
+    mkdirSync(dirname(target), { recursive: true });
+    // Opened (and checked) before the current one is closed: a refusal leaves everything as it was.
+    const next = openDatabase(target, { nativeBinding: this.options.nativeBinding });
+    this.db.close();
+    this.db = next;
+    this.options.dbPath = target;
+    this.analysisCache.clear();
+    this.dataVersion++;
+    if (this.options.recentFile) rememberDatabase(this.options.recentFile, target);
+    return this.getInfo();
   }
 
   close(): void {

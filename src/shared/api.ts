@@ -76,6 +76,12 @@ export interface AppInfo {
   readOnly?: boolean;
 }
 
+export interface DatabaseList {
+  current: string;
+  /** Up to ten paths opened before, most recent first, the current one included. */
+  recent: string[];
+}
+
 export interface LotSummary {
   lot: string;
   wafers: number;
@@ -181,6 +187,11 @@ export interface OffstateApi {
   getFaEdits(lot: string): Promise<FaEdit[]>;
   /** Replaces the hand edits of a lot's FA list. Returns what was stored. */
   saveFaEdits(lot: string, edits: FaEdit[]): Promise<FaEdit[]>;
+  /** The open database and the ones opened before, most recent first. */
+  listDatabases(): Promise<DatabaseList>;
+  /** Switches to another Offstate database (created when the file does not exist yet); a foreign
+   * or newer file is refused with a sentence and the current database stays open. */
+  openDatabase(path: string): Promise<AppInfo>;
   onProgress(listener: (event: ProgressEvent) => void): () => void;
 }
 
@@ -190,5 +201,6 @@ export const API_METHODS = [
   'importFile', 'importBytes', 'exportFlaggedCsv', 'cancelJob',
   'previewImport', 'previewBytes', 'listMappings', 'saveMapping',
   'getLotColumn', 'getSettings', 'saveSettings', 'getFaEdits', 'saveFaEdits',
+  'listDatabases', 'openDatabase',
 ] as const satisfies readonly Exclude<keyof OffstateApi, 'onProgress'>[];
 export type ApiMethod = (typeof API_METHODS)[number];

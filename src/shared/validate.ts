@@ -47,6 +47,8 @@ export const API_ARGS: Record<ApiMethod, ArgKind[]> = {
   saveSettings: ['plain'],
   getFaEdits: ['name'],
   saveFaEdits: ['name', 'plain'],
+  listDatabases: [],
+  openDatabase: ['path'],
 };
 
 export class ArgumentError extends Error {

@@ -3,7 +3,7 @@
 // codec), and a few readers for what the page shows and saves.
 import { spawn, type ChildProcess } from 'node:child_process';
 import { existsSync, mkdirSync, rmSync } from 'node:fs';
-import { join } from 'node:path';
+import { dirname, join } from 'node:path';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
 import { decodePayload } from '../../src/shared/codec';
 import { DEMO_CSV, ROOT, scratchDir } from '../support/paths';
@@ -32,7 +32,7 @@ export interface Session {
 
 function startServer(dbPath: string): Promise<{ child: ChildProcess; url: string }> {
   return new Promise((resolve, reject) => {
-    const child = spawn(process.execPath, [SERVER, '--db', dbPath], { cwd: ROOT, stdio: ['ignore', 'pipe', 'pipe'] });
+    const child = spawn(process.execPath, [SERVER, '--db', dbPath], { cwd: ROOT, stdio: ['ignore', 'pipe', 'pipe'], env: { ...process.env, OFFSTATE_RECENT_FILE: join(dirname(dbPath), 'recent-databases.json') } });
     let output = '';
     const timer = setTimeout(() => reject(new Error(`server printed no URL within 60 s:\n${output}`)), TIMEOUT);
     child.stdout?.on('data', (chunk: Buffer) => {

@@ -4,7 +4,7 @@
 
 import { computed, reactive, shallowRef } from 'vue';
 import type {
-  AppInfo, ColumnMapping, FaEdit, LotAnalysis, LotSummary, OffstateApi, ProgressEvent, StoredSettings, WaferColumn, WaferFrame, WaferSummary,
+  AppInfo, ColumnMapping, DatabaseList, FaEdit, LotAnalysis, LotSummary, OffstateApi, ProgressEvent, StoredSettings, WaferColumn, WaferFrame, WaferSummary,
 } from '../../shared/api';
 import { buildFaList, dieKey } from '../fa/faList';
 import type { ImportPreview } from '../../shared/api';
@@ -217,6 +217,35 @@ export function createWorkspace(transport: Transport) {
     }
   }
 
+  /** The open database and the recent ones, for the database picker. */
+  const databases = shallowRef<DatabaseList | null>(null);
+
+  async function refreshDatabases(): Promise<void> {
+    try { databases.value = await api.listDatabases(); } catch { databases.value = null; }
+  }
+
+  /** Opens another database; on a refusal the current one stays open and the reason is shown. */
+  async function openDatabase(path: string): Promise<boolean> {
+    try {
+      state.info = await api.openDatabase(path);
+    } catch (error) {
+      setStatus(`Database not opened: ${errorText(error)}`, true);
+      return false;
+    }
+    frameCache.clear();
+    state.lot = null;
+    state.wafers = [];
+    state.wafer = null;
+    frame.value = null;
+    analysis.value = null;
+    try { settings.value = await api.getSettings(); } catch { /* the old settings stay shown */ }
+    await refreshLots();
+    await refreshDatabases();
+    if (state.lots.length) await selectLot(state.lots[0].lot);
+    else setStatus(`Opened ${path}: no lot yet.`);
+    return true;
+  }
+
   async function start(): Promise<void> {
     api.onProgress(onProgress);
     try {
@@ -228,6 +257,7 @@ export function createWorkspace(transport: Transport) {
         setStatus(`Could not read the settings: ${errorText(error)}`, true);
       }
       await refreshLots();
+      void refreshDatabases();
       if (state.lots.length) await selectLot(state.lots[0].lot);
       else setStatus('No lot yet.');
     } catch (error) {
@@ -518,7 +548,7 @@ export function createWorkspace(transport: Transport) {
     state, analysis, frame, selection,
     lotSummary, params, paramInfo, waferAnalysis, flaggedOnWafer, flaggedByIndex, flaggedCountByWafer,
     start, selectLot, selectWafer, stepWafer, stepParam, setParam, setSelection, clearSelection,
-    openFlagged, importFiles, recheckImport, flaggedCsv, cancelProgressJob, setStatus,
+    openFlagged, importFiles, recheckImport, databases, openDatabase, refreshDatabases, flaggedCsv, cancelProgressJob, setStatus,
   };
 }
 

@@ -91,6 +91,8 @@ export function createHttpApi(token: string): OffstateApi {
     saveSettings: (settings) => call('saveSettings', [settings]),
     getFaEdits: (lot) => call('getFaEdits', [lot]),
     saveFaEdits: (lot, edits) => call('saveFaEdits', [lot, edits]),
+    listDatabases: () => call('listDatabases', []),
+    openDatabase: (path) => call('openDatabase', [path]),
     onProgress(listener) {
       listeners.add(listener);
       if (!source) openEvents();
