@@ -132,6 +132,9 @@ export function buildBand(cols: DeviceColumns, sample: BandSample, settings: Mec
     slope = (settings.vdd - (vt?.centre ?? 0.4)) / (settings.alpha * settings.swing);
     slopeSource = 'settings';
   }
+  // Width of the band: robust spread of the sample's distances above or below the centre line.
+  const residuals = sample.lnIon.map((x, i) => sample.logIoff[i] - (ioff.centre + slope * (x - ion.centre)));
+  const residualSpread = robustOf(residuals);
   const population = repeatedMedianLine(fit.lnIon, fit.logIoff);
   const dibl = finiteMedian(sample.dibl);
   const swing = finiteMedian(sample.swing);
@@ -140,6 +143,7 @@ export function buildBand(cols: DeviceColumns, sample: BandSample, settings: Mec
     centreLnIon: ion.centre, centreLog10Ioff: ioff.centre, slope, slopeSource,
     ...(population ? { populationFit: { slope: population.slope, intercept: population.intercept } } : {}),
     sigmaLnIon: ion.sigma, sigmaLog10Ioff: ioff.sigma,
+    ...(residualSpread ? { residualSigmaDecades: residualSpread.sigma } : {}),
     ...(vt ? { sigmaVt: vt.sigma, centreVt: vt.centre } : {}),
     ...(ionPerVt !== undefined && ioffPerVt !== undefined ? { ionPerVt, ioffPerVt } : {}),
     ...(dibl !== undefined ? { diblMedian: dibl } : {}),

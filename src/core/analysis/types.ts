@@ -114,6 +114,8 @@ export interface TradeoffBand {
   /** Robust sigmas ((Q3 - Q1)/1.35) of ln|Ion|, log10|Ioff| and |Vt_sat| (V) of those dies. */
   sigmaLnIon: number;
   sigmaLog10Ioff: number;
+  /** Robust sigma of the sample's log10|Ioff| above or below the centre line: the band's width. */
+  residualSigmaDecades?: number;
   sigmaVt?: number;
   centreVt?: number;
   /** d ln|Ion| / d|Vt| and d log10|Ioff| / d|Vt| (repeated-median slopes), when Vt_sat is known. */
