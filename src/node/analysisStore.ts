@@ -7,7 +7,42 @@ import {
 import { isCurrentUnit } from '../core/params';
 import { selectQuantilesInPlace } from '../core/stats';
 import type { Db } from './store/database';
+import type { WaferFrame } from '../core/frame';
+import { geometryFromWcr, type WaferGeometry } from '../core/spatial';
+import type { DisplaySettings } from '../shared/api';
+import { loadWaferGeometry } from './importStore';
 import { getSetting, listLots, listWaferNames, loadLot, loadWafer } from './store/repository';
+
+const NOTCH_SIDE = { down: 'bottom', up: 'top', left: 'left', right: 'right' } as const;
+
+/**
+ * Geometry for the spatial step of one wafer: what its file said (STDF WCR), corrected by the
+ * orientation and shot size the user saved in the settings (when saved); the rest is inferred
+ * from the die grid.
+ */
+export function waferGeometryOf(db: Db): (frame: WaferFrame) => Partial<WaferGeometry> {
+  const savedDisplay = getSetting(db, 'display');
+  let user: Partial<WaferGeometry> = {};
+  if (savedDisplay) {
+    try {
+      const d = JSON.parse(savedDisplay) as Partial<DisplaySettings>;
+      user = {
+        ...(d.notch && NOTCH_SIDE[d.notch] ? { notch: NOTCH_SIDE[d.notch] } : {}),
+        ...(typeof d.yUp === 'boolean' ? { yPositive: d.yUp ? 'up' : 'down' } : {}),
+        ...(Number.isInteger(d.shotColumns) && d.shotColumns! > 0 ? { shotX: d.shotColumns } : {}),
+        ...(Number.isInteger(d.shotRows) && d.shotRows! > 0 ? { shotY: d.shotRows } : {}),
+        ...(Number.isInteger(d.shotOriginX) ? { shotOriginX: d.shotOriginX } : {}),
+        ...(Number.isInteger(d.shotOriginY) ? { shotOriginY: d.shotOriginY } : {}),
+      };
+    } catch {
+      user = {};
+    }
+  }
+  return (frame) => {
+    const wcr = loadWaferGeometry(db, frame.lot, frame.wafer);
+    return { ...(wcr ? geometryFromWcr(wcr) : {}), ...user };
+  };
+}
 
 export function readAnalysisSettings(db: Db): AnalysisSettings {
   const text = getSetting(db, 'analysis');
@@ -60,5 +95,5 @@ export function readHistory(db: Db, lot: string): AnalysisHistory {
 
 export function analyzeStoredLot(db: Db, lot: string, onProgress?: (done: number, total: number) => void): LotAnalysis {
   const frames = loadLot(db, lot);
-  return analyzeLot(frames, { settings: readAnalysisSettings(db), history: readHistory(db, lot), onProgress });
+  return analyzeLot(frames, { settings: readAnalysisSettings(db), history: readHistory(db, lot), onProgress, geometry: waferGeometryOf(db) });
 }

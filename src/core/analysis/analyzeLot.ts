@@ -25,6 +25,7 @@ import { robustCentre, sortColumn, type SortedColumn } from './sortedColumn';
 import { combineMoments, momentsOf, type Moments } from './sortedSummary';
 import { scatterLotMidranks, scatterMidranks, splitBySite, streamSummary } from './streams';
 import { attachPatterns } from './wafersPattern';
+import type { WaferGeometry } from '../spatial';
 import {
   resolveSettings, type AnalysisSettings, type Correlation, type FlaggedDie, type LotAnalysis, type LotStats,
   type ParamSummary, type PatLimits, type Reason, type SiteBias, type StaticReference, type WaferAnalysis,
@@ -43,6 +44,9 @@ export interface AnalyzeOptions {
   history?: AnalysisHistory;
   /** Called after each step with (done, total). */
   onProgress?: (done: number, total: number) => void;
+  /** Known wafer geometry (from the file or the user's settings) for the spatial step; what is
+   * not given is inferred from the die grid. */
+  geometry?: (frame: WaferFrame) => Partial<WaferGeometry> | undefined;
 }
 
 export function methodDescription(settings: AnalysisSettings): string {
@@ -99,7 +103,7 @@ export function analyzeLot(frames: WaferFrame[], options: AnalyzeOptions = {}): 
     warnings.push('Chuck temperature unknown: earlier lots are compared as if measured at the same temperature.');
   }
   const waferList = frames.map((f) => wafers.get(f)!);
-  attachPatterns(frames, flagged).forEach((pattern, i) => { waferList[i].pattern = pattern; });
+  attachPatterns(frames, flagged, options.geometry).forEach((pattern, i) => { waferList[i].pattern = pattern; });
   return {
     settings, method: methodDescription(settings), wafers: waferList, lots, flagged,
     ...(warnings.length ? { warnings } : {}),

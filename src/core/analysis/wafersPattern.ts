@@ -2,7 +2,7 @@
 // the label with its confidence and evidence per wafer, and the cluster each flagged die sits in.
 
 import type { WaferFrame } from '../frame';
-import { labelWafer, type SignatureResult } from '../spatial';
+import { labelWafer, type SignatureResult, type WaferGeometry } from '../spatial';
 import type { ClusterSummary, FlaggedDie, WaferPattern } from './types';
 
 function summariseCluster(c: SignatureResult['clusters'][number]): ClusterSummary {
@@ -14,7 +14,7 @@ function summariseCluster(c: SignatureResult['clusters'][number]): ClusterSummar
 }
 
 /** Labels every wafer and marks each flagged die with its cluster (mutates `flagged`). */
-export function attachPatterns(frames: WaferFrame[], flagged: FlaggedDie[]): WaferPattern[] {
+export function attachPatterns(frames: WaferFrame[], flagged: FlaggedDie[], geometry?: (frame: WaferFrame) => Partial<WaferGeometry> | undefined): WaferPattern[] {
   const byWafer = new Map<string, FlaggedDie[]>();
   for (const die of flagged) {
     const key = `${die.lot}\u0000${die.wafer}`;
@@ -25,7 +25,7 @@ export function attachPatterns(frames: WaferFrame[], flagged: FlaggedDie[]): Waf
     const dies = byWafer.get(`${frame.lot}\u0000${frame.wafer}`) ?? [];
     const mask = new Uint8Array(frame.x.length);
     for (const d of dies) mask[d.index] = 1;
-    const result = labelWafer({ x: frame.x, y: frame.y, flagged: mask, site: frame.site });
+    const result = labelWafer({ x: frame.x, y: frame.y, flagged: mask, site: frame.site, geometry: geometry?.(frame) });
     const clusterOf = new Map<number, SignatureResult['clusters'][number]>();
     for (const c of result.clusters) for (const i of c.dies) clusterOf.set(i, c);
     for (const d of dies) {

@@ -15,3 +15,4 @@ export {
   deviationFlags, spatialProfile, zoneSummaries,
   type RingSummary, type SectorSummary, type ShotPositionSummary, type SpatialProfile, type ZoneSummary,
 } from './zones';
+export { geometryFromWcr } from './fromStdf';
