@@ -2,14 +2,14 @@
 // Electron main process stay responsive. The worker reports progress and can be cancelled.
 
 import { Worker } from 'node:worker_threads';
-import type { ImportResult, LotAnalysis } from '../shared/api';
+import type { ColumnMapping, ImportResult, LotAnalysis } from '../shared/api';
 
 export type JobRequest =
-  | { task: 'import'; dbPath: string; path: string; fileName: string; nativeBinding?: string }
+  | { task: 'import'; dbPath: string; path: string; fileName: string; nativeBinding?: string; mapping?: ColumnMapping; mappingName?: string }
   | { task: 'analyze'; dbPath: string; lot: string; nativeBinding?: string };
 
 export type JobMessage =
-  | { type: 'progress'; done: number; total: number }
+  | { type: 'progress'; done: number; total: number; rows?: number }
   | { type: 'result'; result: ImportResult | LotAnalysis }
   | { type: 'error'; name: string; message: string };
 
@@ -25,13 +25,13 @@ export class JobError extends Error {
   }
 }
 
-export function runInWorker<T>(workerUrl: URL, request: JobRequest, onProgress: (done: number, total: number) => void): RunningJob<T> {
+export function runInWorker<T>(workerUrl: URL, request: JobRequest, onProgress: (done: number, total: number, rows?: number) => void): RunningJob<T> {
   const worker = new Worker(workerUrl, { workerData: request });
   let settled = false;
   let cancelled = false;
   const promise = new Promise<T>((resolve, reject) => {
     worker.on('message', (message: JobMessage) => {
-      if (message.type === 'progress') onProgress(message.done, message.total);
+      if (message.type === 'progress') onProgress(message.done, message.total, message.rows);
       else if (message.type === 'result') { settled = true; resolve(message.result as T); void worker.terminate(); }
       else { settled = true; reject(new JobError(message.name, message.message)); void worker.terminate(); }
     });

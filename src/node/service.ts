@@ -146,10 +146,9 @@ export class OffstateService implements OffstateApi {
   private async importNow(path: string, fileName: string, given: ColumnMapping | string | undefined): Promise<ImportResult> {
     const { workerUrl, dbPath, nativeBinding } = this.options;
     const { mapping, name: mappingName } = resolveMapping(this.db, given);
-    // The worker request carries no mapping yet, so an import with an explicit mapping runs here;
-    // saved mappings that fit the headers are found by the worker itself in the settings table.
-    const result = await this.track<ImportResult>('import', 'bytes', workerUrl && !mapping
-      ? (report) => runInWorker<ImportResult>(workerUrl, { task: 'import', dbPath, path, fileName, nativeBinding }, report)
+    // Saved mappings that fit the headers are also found by the importer itself in the settings table.
+    const result = await this.track<ImportResult>('import', 'bytes', workerUrl
+      ? (report) => runInWorker<ImportResult>(workerUrl, { task: 'import', dbPath, path, fileName, nativeBinding, mapping, mappingName }, report)
       : this.inThread((signal, report) => importAnyFile(this.db, path, { fileName, signal, mapping, mappingName, onProgress: (p) => report(p.bytesDone, p.bytesTotal, p.rows) })));
     if (result.status === 'imported') { this.dataVersion++; this.analysisCache.clear(); }
     return result;

@@ -4,7 +4,7 @@
 import { parentPort, workerData } from 'node:worker_threads';
 import type { JobMessage, JobRequest } from './jobs';
 import { openDatabase } from './store/database';
-import { importDelimitedFile } from './importDelimited';
+import { importAnyFile } from './importAny';
 import { analyzeStoredLot } from './analysisStore';
 
 const request = workerData as JobRequest;
@@ -16,10 +16,12 @@ async function main(): Promise<void> {
   const db = openDatabase(request.dbPath, { nativeBinding: request.nativeBinding });
   try {
     if (request.task === 'import') {
-      const result = await importDelimitedFile(db, request.path, {
+      const result = await importAnyFile(db, request.path, {
         fileName: request.fileName,
         signal: controller.signal,
-        onProgress: (p) => post({ type: 'progress', done: p.bytesDone, total: p.bytesTotal }),
+        mapping: request.mapping,
+        mappingName: request.mappingName,
+        onProgress: (p) => post({ type: 'progress', done: p.bytesDone, total: p.bytesTotal, rows: p.rows }),
       });
       post({ type: 'result', result });
     } else {
