@@ -70,7 +70,8 @@ describe('killing the importer at random moments', () => {
       const file = join(dir, `${lot}.csv`);
       writeFileSync(file, lotText(lot, 6, 12000));
       const child = spawn(process.execPath, [CLI, 'import', file, '--db', db], { stdio: 'ignore' });
-      const delay = span * (0.15 + 0.8 * random());
+      // Spread over 15 % to 140 % of a whole run, so some kills land mid-transaction and some runs finish.
+      const delay = span * (0.15 + 1.25 * random());
       const timer = setTimeout(() => child.kill('SIGKILL'), delay);
       const code = await new Promise<number | null>((resolve) => child.on('exit', (code) => resolve(code)));
       clearTimeout(timer);
