@@ -22,62 +22,17 @@ export function scanField(buf: Uint8Array, start: number, end: number, delimiter
   return i;
 }
 
-/** The number written in buf[start, end) (surrounding spaces allowed), or NaN when it is not plain decimal. */
+/**
+ * The number written in buf[start, end) (surrounding spaces allowed), or NaN when it is not plain
+ * decimal: the field form of scanNumber, which does the reading.
+ */
 export function fastNumber(buf: Uint8Array, start: number, end: number): number {
   let i = start;
   while (i < end && (buf[i] === 32 || buf[i] === 9)) i++;
   while (end > i && (buf[end - 1] === 32 || buf[end - 1] === 9 || buf[end - 1] === 13)) end--;
   if (i === end) return NaN;
-  let negative = false;
-  let c = buf[i];
-  if (c === 45) { negative = true; i++; } else if (c === 43) i++;
-  const intStart = i;
-  let m = 0;
-  let exp = 0;
-  while (i < end) {
-    c = buf[i] - 48;
-    if (c < 0 || c > 9) break;
-    m = m * 10 + c;
-    i++;
-  }
-  let digits = i - intStart;
-  if (i < end && buf[i] === 46) {
-    i++;
-    const fractionStart = i;
-    while (i < end) {
-      c = buf[i] - 48;
-      if (c < 0 || c > 9) break;
-      m = m * 10 + c;
-      i++;
-    }
-    exp = fractionStart - i;
-    digits -= exp;
-  }
-  if (digits === 0 || m >= 9007199254740992) return NaN;
-  if (i < end && (buf[i] | 32) === 101) {
-    i++;
-    let expNegative = false;
-    if (i < end && (buf[i] === 45 || buf[i] === 43)) { expNegative = buf[i] === 45; i++; }
-    let e = 0;
-    let expDigits = 0;
-    while (i < end) {
-      c = buf[i] - 48;
-      if (c < 0 || c > 9) break;
-      if (e < 10_000) e = e * 10 + c;
-      expDigits++;
-      i++;
-    }
-    if (expDigits === 0) return NaN;
-    exp += expNegative ? -e : e;
-  }
-  if (i !== end) return NaN;
-  let v: number;
-  if (m === 0) v = 0;
-  else if (exp === 0) v = m;
-  else if (exp > 0 && exp <= 22) v = m * POW10[exp];
-  else if (exp < 0 && exp >= -22) v = m / POW10[-exp];
-  else return NaN;
-  return negative ? -v : v;
+  const v = scanNumber(buf, i, end, -1);
+  return scanEnd === end ? v : NaN;
 }
 
 /** A whole number in buf[start, end) (spaces allowed), or NaN. */
