@@ -43,3 +43,20 @@ export function finiteValues(values: NumericInput): Float64Array {
   }
   return out;
 }
+
+/**
+ * The complete pairs of two paired inputs: the rows where both values count, in their original
+ * order (the paired-data side of the missing-data rule). The caller checks the lengths match.
+ *
+ * O(n) time.
+ */
+export function completePairs(x: NumericInput, y: NumericInput): { xs: number[]; ys: number[] } {
+  const xs: number[] = [];
+  const ys: number[] = [];
+  for (let i = 0; i < x.length; i++) {
+    const a = x[i];
+    const b = y[i];
+    if (isFiniteNumber(a) && isFiniteNumber(b)) { xs.push(a); ys.push(b); }
+  }
+  return { xs, ys };
+}

@@ -15,7 +15,7 @@
 // Bad arguments that are programming errors (a probability outside [0, 1], paired inputs of
 // different lengths, a non-positive degrees of freedom) throw a RangeError with a sentence.
 
-export { countFinite, finiteValues, isFiniteNumber, type NumericInput } from './finite';
+export { completePairs, countFinite, finiteValues, isFiniteNumber, type NumericInput } from './finite';
 export { compensatedSum, mean } from './mean';
 export { standardDeviation, variance } from './variance';
 export { selectInPlace, selectManyInPlace } from './select';

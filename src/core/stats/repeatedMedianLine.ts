@@ -1,6 +1,6 @@
 // Robust straight line with a 50 % breakdown point: a minority of abnormal points cannot bend it.
 import { requireSameLength } from './pearson';
-import { isFiniteNumber, type NumericInput } from './finite';
+import { completePairs, type NumericInput } from './finite';
 import { selectQuantilesInPlace } from './quantile';
 
 export interface RobustLine {
@@ -23,13 +23,7 @@ export interface RobustLine {
  */
 export function repeatedMedianLine(x: NumericInput, y: NumericInput): RobustLine | undefined {
   requireSameLength(x, y, 'repeatedMedianLine');
-  const xs: number[] = [];
-  const ys: number[] = [];
-  for (let i = 0; i < x.length; i++) {
-    const a = x[i];
-    const b = y[i];
-    if (isFiniteNumber(a) && isFiniteNumber(b)) { xs.push(a); ys.push(b); }
-  }
+  const { xs, ys } = completePairs(x, y);
   const n = xs.length;
   if (n < 3) return undefined;
   const inner = new Float64Array(n);

@@ -1,6 +1,6 @@
 // Median of pairwise slopes: the classic robust line, 29 % breakdown.
 import { requireSameLength } from './pearson';
-import { isFiniteNumber, type NumericInput } from './finite';
+import { completePairs, type NumericInput } from './finite';
 import { selectQuantilesInPlace } from './quantile';
 import type { RobustLine } from './repeatedMedianLine';
 
@@ -17,13 +17,7 @@ import type { RobustLine } from './repeatedMedianLine';
  */
 export function theilSenLine(x: NumericInput, y: NumericInput): RobustLine | undefined {
   requireSameLength(x, y, 'theilSenLine');
-  const xs: number[] = [];
-  const ys: number[] = [];
-  for (let i = 0; i < x.length; i++) {
-    const a = x[i];
-    const b = y[i];
-    if (isFiniteNumber(a) && isFiniteNumber(b)) { xs.push(a); ys.push(b); }
-  }
+  const { xs, ys } = completePairs(x, y);
   const n = xs.length;
   if (n < 2) return undefined;
   const slopes = new Float64Array((n * (n - 1)) / 2);
