@@ -231,8 +231,3 @@ export class OffstateService implements OffstateApi {
     this.jobs.get(jobId)?.cancel();
   }
 }
-
-/** Writes text to a path, refusing to overwrite an existing file unless told to. */
-export function writeNewFile(path: string, text: string, overwrite = false): void {
-  writeFileSync(path, text, { flag: overwrite ? 'w' : 'wx' });
-}
