@@ -4,13 +4,14 @@
 import { parseArgs } from 'node:util';
 import { mkdirSync, openSync, readSync, closeSync, existsSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
+import { fileURLToPath } from 'node:url';
 import { jsonReport, reasonText, type LotAnalysis } from '../core/analysis';
 import { openDatabase, type Db } from './store/database';
 import { listLots } from './store/repository';
 import { importAnyFile, previewFile } from './importAny';
 import { resolveMapping, saveMapping } from './importMappings';
 import type { ImportPreview } from '../core/import';
-import { analyzeStoredLot } from './analysisStore';
+import { analyzeStoredLotInParallel } from './analysisStore';
 import { OffstateService } from './service';
 import { startServer } from './server';
 import { defaultDatabasePath, demoLotPath, recentDatabasesFile, uiDir } from './paths';
@@ -125,6 +126,13 @@ async function previewCommand(files: string[], dbOption: string | undefined, map
   }
 }
 
+/** The worker script beside the bundled CLI (dist/node/worker.mjs), for the analysis's helper
+ * threads; none when run unbundled. */
+function helperScript(): URL | undefined {
+  const url = new URL('./worker.mjs', import.meta.url);
+  return existsSync(fileURLToPath(url)) ? url : undefined;
+}
+
 function mergeAnalyses(analyses: LotAnalysis[]): LotAnalysis {
   return {
     settings: analyses[0].settings,
@@ -147,7 +155,7 @@ async function analyzeCommand(files: string[], json: boolean, dbOption: string |
       if (isSqliteFile(file)) {
         const db = openDatabase(file, { readonly: true });
         try {
-          for (const lot of listLots(db)) analyses.push(analyzeStoredLot(db, lot.lot));
+          for (const lot of listLots(db)) analyses.push(await analyzeStoredLotInParallel(db, lot.lot, { workerUrl: helperScript() }));
         } finally {
           db.close();
         }
@@ -159,7 +167,7 @@ async function analyzeCommand(files: string[], json: boolean, dbOption: string |
         }
       }
     }
-    if (scratchUsed) for (const lot of listLots(scratch)) analyses.push(analyzeStoredLot(scratch, lot.lot));
+    if (scratchUsed) for (const lot of listLots(scratch)) analyses.push(await analyzeStoredLotInParallel(scratch, lot.lot, { workerUrl: helperScript() }));
   } catch (error) {
     process.stderr.write(`offstate analyze: ${(error as Error).message}\n`);
     return 1;
@@ -210,7 +218,7 @@ async function exportCommand(lot: string | undefined, outOption: string | undefi
   try {
     const summary = listLots(db).find((l) => l.lot === lot);
     if (!summary) { process.stderr.write(`offstate export: no lot ${lot} in ${dbPath}.\n`); return 1; }
-    const analysis = analyzeStoredLot(db, lot);
+    const analysis = await analyzeStoredLotInParallel(db, lot, { workerUrl: helperScript() });
     const text = json ? JSON.stringify(jsonReport(analysis), null, 1) + '\n' : flaggedCsv(analysis, summary.params);
     const target = resolve(outOption ?? safeFileName(`${lot}-flagged`, json ? 'json' : 'csv'));
     writeNewFile(target, text, force);

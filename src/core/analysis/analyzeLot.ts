@@ -8,7 +8,7 @@
 // Parameters are processed one at a time over all wafers, so only one parameter's orderings
 // (two for an Ion-Ioff pair) are held at once.
 
-import type { WaferFrame } from '../frame';
+import type { ParamInfo, WaferFrame } from '../frame';
 import { isCurrentUnit, tradeoffPairs } from '../params';
 import { Buffers } from './buffers';
 import { excursionScores, type WaferCentre } from './excursion';
@@ -78,22 +78,39 @@ export function concatFrames(frames: WaferFrame[]): Pick<WaferFrame, 'params' | 
 
 export function analyzeLot(frames: WaferFrame[], options: AnalyzeOptions = {}): LotAnalysis {
   const settings = resolveSettings(options.settings);
-  const lotNames = [...new Set(frames.map((f) => f.lot))];
-  const wafers = new Map<WaferFrame, WaferAnalysis>();
-  const lots: LotStats[] = [];
-  const flagged: FlaggedDie[] = [];
-  const warnings: string[] = [];
   // Progress in wafers, as the callers count it: each lot's share advances parameter by parameter.
   let before = 0;
   const total = frames.length;
-  for (const lot of lotNames) {
-    const ofLot = frames.filter((f) => f.lot === lot);
+  const lots = lotsOf(frames);
+  const results = lots.map((ofLot) => {
     const result = analyzeOneLot(ofLot, settings, options.history, (fraction) => options.onProgress?.(Math.floor(before + fraction * ofLot.length), total));
     before += ofLot.length;
-    ofLot.forEach((f, i) => wafers.set(f, result.wafers[i]));
-    lots.push(result.lot);
-    flagged.push(...result.flagged);
-  }
+    return result;
+  });
+  return assemble(frames, lots, results, settings, options);
+}
+
+/**
+ * The same analysis as `analyzeLot`, from parameter groups computed apart (`planParamGroups`,
+ * `analyzeParamGroup`, typically in worker threads). Gives exactly what `analyzeLot` gives.
+ */
+export function analyzeLotFromGroups(frames: WaferFrame[], groups: ParamGroupResult[], options: Omit<AnalyzeOptions, 'onProgress'> = {}): LotAnalysis {
+  const settings = resolveSettings(options.settings);
+  const lots = lotsOf(frames);
+  const results = lots.map((ofLot) => completeOneLot(ofLot, groups, settings, options.history, new NeighbourhoodCache()));
+  return assemble(frames, lots, results, settings, options);
+}
+
+function lotsOf(frames: WaferFrame[]): WaferFrame[][] {
+  return [...new Set(frames.map((f) => f.lot))].map((lot) => frames.filter((f) => f.lot === lot));
+}
+
+function assemble(
+  frames: WaferFrame[], lots: WaferFrame[][], results: ReturnType<typeof completeOneLot>[], settings: AnalysisSettings, options: Omit<AnalyzeOptions, 'onProgress'>,
+): LotAnalysis {
+  const wafers = new Map<WaferFrame, WaferAnalysis>();
+  lots.forEach((ofLot, l) => ofLot.forEach((f, i) => wafers.set(f, results[l].wafers[i])));
+  const warnings: string[] = [];
   if (settings.methods.patStatic) {
     const n = options.history?.lots ?? 0;
     if (n === 0) warnings.push(`Static PAT not applied: no earlier lots in the store (AEC-Q001 asks for at least ${settings.staticMinLots}).`);
@@ -102,10 +119,11 @@ export function analyzeLot(frames: WaferFrame[], options: AnalyzeOptions = {}): 
   if (settings.temperatureC === null && options.history && options.history.lots > 0) {
     warnings.push('Chuck temperature unknown: earlier lots are compared as if measured at the same temperature.');
   }
+  const flagged = results.flatMap((r) => r.flagged);
   const waferList = frames.map((f) => wafers.get(f)!);
   attachPatterns(frames, flagged, options.geometry).forEach((pattern, i) => { waferList[i].pattern = pattern; });
   return {
-    settings, method: methodDescription(settings), wafers: waferList, lots, flagged,
+    settings, method: methodDescription(settings), wafers: waferList, lots: results.map((r) => r.lot), flagged,
     ...(warnings.length ? { warnings } : {}),
   };
 }
@@ -156,16 +174,111 @@ function addReason(work: WaferWork, die: number, reason: Reason): void {
   if (list) list.push(reason); else work.reasons.set(die, [reason]);
 }
 
-function analyzeOneLot(frames: WaferFrame[], settings: AnalysisSettings, history: AnalysisHistory | undefined, progress: (fraction: number) => void) {
-  const lot = frames[0].lot;
-  const allParams = frames[0].params.map((p) => ({ ...p }));
+/** The lot's parameters in the order they are analysed: each Ion-Ioff pair first and adjacent (so
+ * its ranks can be released as soon as the pair is done), then the rest in file order. Reasons,
+ * summaries and site-bias entries appear in this order whatever way the work is split. */
+export function analysisOrder(frames: WaferFrame[]): ParamInfo[] {
+  const allParams = frames[0]?.params.map((p) => ({ ...p })) ?? [];
   for (const f of frames) for (const p of f.params) if (!allParams.some((q) => q.name === p.name)) allParams.push({ ...p });
   const pairs = tradeoffPairs(allParams.map((p) => p.name));
+  const inPair = new Set(pairs.flatMap((p) => [p.ioff, p.ion]));
+  return [...pairs.flatMap((p) => [p.ioff, p.ion]), ...allParams.map((p) => p.name).filter((n) => !inPair.has(n))]
+    .map((name) => allParams.find((p) => p.name === name)!);
+}
+
+/**
+ * Splits the lot's parameters into at most `parts` groups that can be analysed independently (in
+ * separate threads) and joined by `completeLot`: contiguous runs of `analysisOrder`, never
+ * separating an Ion-Ioff pair, balanced by an estimate of the work (a pair member costs more:
+ * its ranks feed the Spearman correlations).
+ */
+export function planParamGroups(frames: WaferFrame[], parts: number): string[][] {
+  const ordered = analysisOrder(frames).map((p) => p.name);
+  const pairs = tradeoffPairs(ordered);
+  const units: { names: string[]; weight: number }[] = [
+    ...pairs.map((p) => ({ names: [p.ioff, p.ion], weight: 2 * PAIR_MEMBER_WEIGHT })),
+    ...ordered.slice(pairs.length * 2).map((name) => ({ names: [name], weight: 1 })),
+  ];
+  const count = Math.max(1, Math.min(Math.floor(parts), units.length));
+  let remaining = units.reduce((sum, u) => sum + u.weight, 0);
+  const groups: string[][] = [];
+  let at = 0;
+  for (let g = 0; g < count; g++) {
+    const left = count - g;
+    const target = remaining / left;
+    const group: string[] = [];
+    let weight = 0;
+    // Take units while the group is under its share, leaving at least one unit per later group.
+    while (at < units.length && units.length - at > left - 1 && (group.length === 0 || left === 1 || weight + units[at].weight / 2 <= target)) {
+      group.push(...units[at].names);
+      weight += units[at].weight;
+      at++;
+    }
+    remaining -= weight;
+    groups.push(group);
+  }
+  return groups.filter((g) => g.length > 0);
+}
+
+/** Relative cost of analysing one member of an Ion-Ioff pair against another parameter (measured
+ * on the full-size bench lot). */
+const PAIR_MEMBER_WEIGHT = 1.4;
+
+/** Neighbourhoods shared by the wafers of a lot that have one die grid, built once. */
+export class NeighbourhoodCache {
+  private readonly hoods: { x: Int32Array; y: Int32Array; radius: number; hood: Neighbourhood }[] = [];
+  of(f: WaferFrame, radius: number): Neighbourhood {
+    const same = this.hoods.find((h) => h.radius === radius && sameGrid(h.x, h.y, f.x, f.y));
+    if (same) return same.hood;
+    const hood = neighbourhood(f.x, f.y, radius);
+    this.hoods.push({ x: f.x, y: f.y, radius, hood });
+    return hood;
+  }
+}
+
+/** What analysing some parameters of one lot gives, wafer by wafer and for the lot: plain data
+ * (structured-clone safe), so a worker thread can compute it and post it back. */
+export interface ParamGroupResult {
+  lot: string;
+  /** The group's parameters in analysis order. */
+  names: string[];
+  wafers: {
+    params: Record<string, ParamSummary>;
+    sites: Record<string, Record<string, ParamSummary>>;
+    siteBias: SiteBias[];
+    correlation: Correlation[];
+    correlationBySite: Record<string, Correlation[]>;
+    /** Per flagged die (index in the frame): the PAT and NNR reasons, in analysis order. */
+    reasons: Map<number, Reason[]>;
+  }[];
+  lotStats: {
+    params: Record<string, ParamSummary>;
+    sites: Record<string, Record<string, ParamSummary>>;
+    siteBias: SiteBias[];
+    correlation: Correlation[];
+    correlationBySite: Record<string, Correlation[]>;
+    patLimits: Record<string, PatLimits>;
+  };
+  /** Per parameter, each wafer's robust centre and sigma on the analysis scale. */
+  centres: Map<string, (WaferCentre | undefined)[]>;
+}
+
+/**
+ * Statistics, site bias, correlations and the per-parameter flags (PAT, NNR) of the named
+ * parameters over the wafers of one lot. Frames need only those parameters' columns.
+ */
+export function analyzeParamGroup(
+  frames: WaferFrame[], names: readonly string[], options: Pick<AnalyzeOptions, 'settings' | 'history'> & { onProgress?: (fraction: number) => void; hoods?: NeighbourhoodCache } = {},
+): ParamGroupResult {
+  const settings = resolveSettings(options.settings);
+  const history = options.history;
+  const progress = options.onProgress ?? (() => {});
+  const lot = frames[0].lot;
+  const wanted = new Set(names);
+  const ordered = analysisOrder(frames).filter((p) => wanted.has(p.name));
+  const pairs = tradeoffPairs(ordered.map((p) => p.name));
   const pairOf = new Map<string, (typeof pairs)[number]>();
   for (const pair of pairs) { pairOf.set(pair.ioff, pair); pairOf.set(pair.ion, pair); }
-  // Pair members first and adjacent, so their ranks can be released as soon as the pair is done.
-  const ordered = [...pairs.flatMap((p) => [p.ioff, p.ion]), ...allParams.map((p) => p.name).filter((n) => !pairOf.has(n))]
-    .map((name) => allParams.find((p) => p.name === name)!);
 
   const work: WaferWork[] = frames.map((frame) => ({
     frame, params: {}, sites: {}, siteBias: [], correlation: [], correlationBySite: {}, reasons: new Map(),
@@ -180,18 +293,11 @@ function analyzeOneLot(frames: WaferFrame[], settings: AnalysisSettings, history
   const kept = new Map<string, PairRanks>();
   const limit = settings.patLimit;
   const buffers = new Buffers();
-  // Wafers of a lot usually share one die grid: build each distinct neighbourhood once.
-  const hoods: { x: Int32Array; y: Int32Array; hood: Neighbourhood }[] = [];
-  const hoodOf = (f: WaferFrame): Neighbourhood => {
-    const same = hoods.find((h) => sameGrid(h.x, h.y, f.x, f.y));
-    if (same) return same.hood;
-    const hood = neighbourhood(f.x, f.y, settings.nnrRadius);
-    hoods.push({ x: f.x, y: f.y, hood });
-    return hood;
-  };
+  const hoods = options.hoods ?? new NeighbourhoodCache();
+  const hoodOf = (f: WaferFrame): Neighbourhood => hoods.of(f, settings.nnrRadius);
 
   for (const [step, param] of ordered.entries()) {
-    if (step > 0) progress(step / (ordered.length + 1));
+    if (step > 0) progress(step / ordered.length);
     const current = isCurrentUnit(param.unit);
     const spec = settings.specLimits[param.name];
     const columns: (SortedColumn | undefined)[] = frames.map((f) =>
@@ -327,6 +433,85 @@ function analyzeOneLot(frames: WaferFrame[], settings: AnalysisSettings, history
     }
   }
 
+  progress(1);
+  return {
+    lot, names: ordered.map((p) => p.name),
+    wafers: work.map((wk) => ({
+      params: wk.params, sites: wk.sites, siteBias: wk.siteBias, correlation: wk.correlation,
+      correlationBySite: wk.correlationBySite, reasons: wk.reasons,
+    })),
+    lotStats: { params: lotParams, sites: lotSites, siteBias: lotSiteBias, correlation: lotCorrelation, correlationBySite: lotCorrelationBySite, patLimits },
+    centres,
+  };
+}
+
+function analyzeOneLot(frames: WaferFrame[], settings: AnalysisSettings, history: AnalysisHistory | undefined, progress: (fraction: number) => void) {
+  const hoods = new NeighbourhoodCache();
+  const names = analysisOrder(frames).map((p) => p.name);
+  // The last of names.length + 1 steps is the joining work.
+  const group = analyzeParamGroup(frames, names, { settings, history, hoods, onProgress: (f) => progress(f * names.length / (names.length + 1)) });
+  const result = completeOneLot(frames, [group], settings, history, hoods);
+  progress(1);
+  return result;
+}
+
+/**
+ * Joins the parameter groups of one lot (all of them, from `analyzeParamGroup`, in any order) and
+ * does what needs every parameter at once: GDBN, the trade-off bands and mechanism triage, the
+ * flagged-die list and the excursion scores. Frames need every parameter's column.
+ */
+function completeOneLot(frames: WaferFrame[], groups: ParamGroupResult[], settings: AnalysisSettings, history: AnalysisHistory | undefined, hoods: NeighbourhoodCache) {
+  const lot = frames[0].lot;
+  const ordered = analysisOrder(frames).map((p) => p.name);
+  const position = (g: ParamGroupResult) => Math.min(...g.names.map((n) => ordered.indexOf(n)).filter((i) => i >= 0));
+  const sorted = groups.filter((g) => g.lot === lot).sort((a, b) => position(a) - position(b));
+  const covered = new Set(sorted.flatMap((g) => g.names));
+  const missing = ordered.filter((n) => !covered.has(n));
+  if (missing.length > 0) throw new Error(`Analysis of lot ${lot} is missing parameter${missing.length === 1 ? '' : 's'} ${missing.join(', ')}.`);
+  if (sorted.some((g) => g.wafers.length !== frames.length)) throw new Error(`Analysis of lot ${lot}: a parameter group covers another set of wafers.`);
+  const pairs = tradeoffPairs(ordered);
+  const limit = settings.patLimit;
+  const hoodOf = (f: WaferFrame): Neighbourhood => hoods.of(f, settings.nnrRadius);
+
+  // Join the groups in analysis order, so every list reads as if one pass had made it.
+  const work: WaferWork[] = frames.map((frame) => ({
+    frame, params: {}, sites: {}, siteBias: [], correlation: [], correlationBySite: {}, reasons: new Map(),
+  }));
+  const lotParams: Record<string, ParamSummary> = {};
+  const lotSites: Record<string, Record<string, ParamSummary>> = {};
+  const lotSiteBias: SiteBias[] = [];
+  const lotCorrelation: Correlation[] = [];
+  const lotCorrelationBySite: Record<string, Correlation[]> = {};
+  const patLimits: Record<string, PatLimits> = {};
+  const centres = new Map<string, (WaferCentre | undefined)[]>();
+  const joinSites = (into: Record<string, Record<string, ParamSummary>>, from: Record<string, Record<string, ParamSummary>>) => {
+    for (const [site, params] of Object.entries(from)) Object.assign(into[site] ??= {}, params);
+  };
+  const joinBySite = (into: Record<string, Correlation[]>, from: Record<string, Correlation[]>) => {
+    for (const [site, list] of Object.entries(from)) (into[site] ??= []).push(...list);
+  };
+  for (const g of sorted) {
+    g.wafers.forEach((part, w) => {
+      const wk = work[w];
+      Object.assign(wk.params, part.params);
+      joinSites(wk.sites, part.sites);
+      wk.siteBias.push(...part.siteBias);
+      wk.correlation.push(...part.correlation);
+      joinBySite(wk.correlationBySite, part.correlationBySite);
+      for (const [die, reasons] of part.reasons) {
+        const list = wk.reasons.get(die);
+        if (list) list.push(...reasons); else wk.reasons.set(die, [...reasons]);
+      }
+    });
+    Object.assign(lotParams, g.lotStats.params);
+    joinSites(lotSites, g.lotStats.sites);
+    lotSiteBias.push(...g.lotStats.siteBias);
+    lotCorrelation.push(...g.lotStats.correlation);
+    joinBySite(lotCorrelationBySite, g.lotStats.correlationBySite);
+    Object.assign(patLimits, g.lotStats.patLimits);
+    for (const [name, list] of g.centres) centres.set(name, list);
+  }
+
   // GDBN needs every other method's flags of the wafer.
   const masks = work.map((wk) => {
     const mask = new Uint8Array(wk.frame.x.length);
@@ -335,8 +520,7 @@ function analyzeOneLot(frames: WaferFrame[], settings: AnalysisSettings, history
   });
   if (settings.methods.gdbn) {
     work.forEach((wk, w) => {
-      wk.hood ??= hoodOf(wk.frame);
-      flagGdbn(masks[w], wk.hood, settings.gdbnFraction, settings.gdbnMinNeighbours, (die) => strongest(wk.frame, die, centres, w), limit,
+      flagGdbn(masks[w], hoodOf(wk.frame), settings.gdbnFraction, settings.gdbnMinNeighbours, (die) => strongest(wk.frame, die, centres, w), limit,
         (die, r) => addReason(wk, die, r));
     });
   }
@@ -375,7 +559,6 @@ function analyzeOneLot(frames: WaferFrame[], settings: AnalysisSettings, history
       excursion: { score: 0, param: '', shift: 0, shifts: {}, flaggedFraction: 0 }, tradeoff: waferBands[w],
     });
   });
-  progress(1);
   const scores = excursionScores(centres, fractions, history);
   waferResults.forEach((r, w) => { r.excursion = scores[w]; });
   const waferOrder = waferResults

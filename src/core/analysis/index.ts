@@ -1,6 +1,9 @@
 // Front door of the analysis engine.
 export * from './types';
-export { analyzeLot, concatFrames, methodDescription, type AnalysisHistory, type AnalyzeOptions } from './analyzeLot';
+export {
+  analyzeLot, analyzeLotFromGroups, analyzeParamGroup, analysisOrder, concatFrames, methodDescription, planParamGroups,
+  type AnalysisHistory, type AnalyzeOptions, type ParamGroupResult,
+} from './analyzeLot';
 export { groupStats, indicesBySite } from './groupStats';
 export { paramSummary } from './paramSummary';
 export { tradeoffCorrelations } from './correlation';
