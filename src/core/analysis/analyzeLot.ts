@@ -165,10 +165,6 @@ function slotsOf(wk: WaferWork, col: SortedColumn, buffers: Buffers): { sites: n
 /** Ranks and the log10|Ioff| column kept for an Ion-Ioff pair until both members are done. */
 interface PairRanks { wafer: Float32Array[]; site: Float32Array[]; lot: Float32Array[]; lotSite: Float32Array[]; log: Float64Array[] }
 
-function nanRanks(n: number): Float32Array {
-  return new Float32Array(n).fill(NaN);
-}
-
 function addReason(work: WaferWork, die: number, reason: Reason): void {
   const list = work.reasons.get(die);
   if (list) list.push(reason); else work.reasons.set(die, [reason]);
@@ -300,8 +296,9 @@ export function analyzeParamGroup(
     if (step > 0) progress(step / ordered.length);
     const current = isCurrentUnit(param.unit);
     const spec = settings.specLimits[param.name];
-    const columns: (SortedColumn | undefined)[] = frames.map((f) =>
-      f.values[param.name] ? sortColumn(f.values[param.name], param.unit, f.site, buffers) : undefined);
+    // Each wafer's column lives in memory kept for that wafer, reused by the next parameter.
+    const columns: (SortedColumn | undefined)[] = frames.map((f, w) =>
+      f.values[param.name] ? sortColumn(f.values[param.name], param.unit, f.site, buffers, `column ${w}`) : undefined);
     const pair = pairOf.get(param.name);
     const ranks: PairRanks | undefined = pair ? { wafer: [], site: [], lot: [], lotSite: [], log: [] } : undefined;
     const waferCentres: (WaferCentre | undefined)[] = [];
@@ -323,9 +320,12 @@ export function analyzeParamGroup(
       const raw = wk.frame.values[param.name];
       const n = wk.frame.x.length;
       if (ranks) {
-        ranks.wafer[w] = nanRanks(n); ranks.site[w] = nanRanks(n); ranks.lot[w] = nanRanks(n); ranks.lotSite[w] = nanRanks(n);
+        // Kept per pair member and wafer until the pair is done, then reused by the next pair.
+        const member = pair!.ioff === param.name ? 'ioff' : 'ion';
+        const nan = (kind: string) => buffers.f32(`ranks ${member} ${kind} ${w}`, n).fill(NaN);
+        ranks.wafer[w] = nan('wafer'); ranks.site[w] = nan('site'); ranks.lot[w] = nan('lot'); ranks.lotSite[w] = nan('lot site');
         // Only Ioff's log10 column is needed later (the correlation is |Ion| on log10|Ioff|).
-        if (pair!.ioff === param.name) ranks.log[w] = new Float64Array(n).fill(NaN);
+        if (member === 'ioff') ranks.log[w] = buffers.f64(`log10 ioff ${w}`, n).fill(NaN);
       }
       if (!col) { waferCentres.push(undefined); return; }
       const scaled = current ? col.scaled : undefined;

@@ -7,6 +7,7 @@ export class Buffers {
   private readonly f64s = new Map<string, Float64Array>();
   private readonly u32s = new Map<string, Uint32Array>();
   private readonly u8s = new Map<string, Uint8Array>();
+  private readonly f32s = new Map<string, Float32Array>();
 
   f64(key: string, n: number): Float64Array {
     let b = this.f64s.get(key);
@@ -17,6 +18,12 @@ export class Buffers {
   u32(key: string, n: number): Uint32Array {
     let b = this.u32s.get(key);
     if (!b || b.length < n) { b = new Uint32Array(n); this.u32s.set(key, b); }
+    return b.subarray(0, n);
+  }
+
+  f32(key: string, n: number): Float32Array {
+    let b = this.f32s.get(key);
+    if (!b || b.length < n) { b = new Float32Array(n); this.f32s.set(key, b); }
     return b.subarray(0, n);
   }
 

@@ -23,8 +23,14 @@ export interface SortedColumn {
   zeros: number;
 }
 
-/** Sorts one column of a wafer: O(n) radix ordering of the finite magnitudes. */
-export function sortColumn(values: Float64Array, unit: string, siteOfDie: Int32Array, buffers?: Buffers): SortedColumn {
+/**
+ * Sorts one column of a wafer: O(n) radix ordering of the finite magnitudes. With `buffers` and
+ * a `key`, the column's own arrays live in memory kept under that key (one key per wafer serves
+ * every parameter in turn, so a lot's columns are not allocated and collected parameter after
+ * parameter); the column is then valid until the next sort under the same key.
+ */
+export function sortColumn(values: Float64Array, unit: string, siteOfDie: Int32Array, buffers?: Buffers, key?: string): SortedColumn {
+  const own = buffers && key ? { buffers, key } : undefined;
   const current = isCurrentUnit(unit);
   let m = 0;
   for (let i = 0; i < values.length; i++) if (Number.isFinite(values[i])) m++;
@@ -48,12 +54,12 @@ export function sortColumn(values: Float64Array, unit: string, siteOfDie: Int32A
       index[k++] = i;
     }
   }
-  const permutation = ascendingOrderByHighWord(compact, buffers?.u32('sort.radix', 3 * m));
-  const sorted = new Float64Array(m);
-  const site = new Int32Array(m);
+  const permutation = ascendingOrderByHighWord(compact, buffers?.u32('sort.radix', 3 * m), own?.buffers.u32(`${own.key}.permutation`, m));
+  const sorted = own ? own.buffers.f64(`${own.key}.sorted`, m) : new Float64Array(m);
+  const site = own ? new Int32Array(own.buffers.u32(`${own.key}.site`, m).buffer, 0, m) : new Int32Array(m);
   let order: Uint32Array;
   if (index) {
-    order = new Uint32Array(m);
+    order = own ? own.buffers.u32(`${own.key}.order`, m) : new Uint32Array(m);
     for (let k = 0; k < m; k++) {
       const j = permutation[k];
       sorted[k] = compact[j];
@@ -68,15 +74,15 @@ export function sortColumn(values: Float64Array, unit: string, siteOfDie: Int32A
       site[k] = siteOfDie[j];
     }
   }
-  return withScale(sorted, order, site, current);
+  return withScale(sorted, order, site, current, own);
 }
 
 /** Completes a sorted stream (from a sort or a merge) with its analysis scale. */
-export function withScale(sorted: Float64Array, order: Uint32Array, site: Int32Array, current: boolean): SortedColumn {
+export function withScale(sorted: Float64Array, order: Uint32Array, site: Int32Array, current: boolean, own?: { buffers: Buffers; key: string }): SortedColumn {
   if (!current) return { sorted, order, site, scaled: sorted, scaledOrder: order, scale: 'linear', zeros: 0 };
   let zeros = 0;
   while (zeros < sorted.length && sorted[zeros] === 0) zeros++;
-  const scaled = new Float64Array(sorted.length - zeros);
+  const scaled = own ? own.buffers.f64(`${own.key}.scaled`, sorted.length - zeros) : new Float64Array(sorted.length - zeros);
   for (let k = zeros; k < sorted.length; k++) scaled[k - zeros] = Math.log10(sorted[k]);
   return { sorted, order, site, scaled, scaledOrder: order.subarray(zeros), scale: 'log10', zeros };
 }

@@ -18,11 +18,17 @@ const INSERTION_UP_TO = 24;
  *
  * O(n) for measured data whose values rarely agree to six digits; never worse than
  * O(n log n) (long runs). O(n) scratch; a caller sorting many columns may pass `scratch` (at
- * least 3n entries, contents ignored) to reuse it; the result is always a new array.
+ * least 3n entries, contents ignored) and `into` (n entries) to reuse memory; the result is
+ * `into` when given and long enough, else a new array.
  */
-export function ascendingOrderByHighWord(values: Float64Array, scratch?: Uint32Array): Uint32Array {
+export function ascendingOrderByHighWord(values: Float64Array, scratch?: Uint32Array, into?: Uint32Array): Uint32Array {
   const n = values.length;
-  if (n < RADIX_FROM) return ascendingOrder(values);
+  if (n < RADIX_FROM) {
+    const order = ascendingOrder(values);
+    if (!into || into.length < n) return order;
+    into.set(order);
+    return into.subarray(0, n);
+  }
   const words = new Uint32Array(values.buffer, values.byteOffset, 2 * n);
   const hiAt = LITTLE_ENDIAN ? 1 : 0;
   const spare = scratch && scratch.length >= 3 * n ? scratch : new Uint32Array(3 * n);
@@ -44,7 +50,7 @@ export function ascendingOrderByHighWord(values: Float64Array, scratch?: Uint32A
     for (let b = 0; b < 2048; b++) if (counts[d * 2048 + b] === n) { uniform = true; break; }
     if (!uniform) passes++;
   }
-  const result = new Uint32Array(n);
+  const result = into && into.length >= n ? into.subarray(0, n) : new Uint32Array(n);
   let order = passes % 2 === 0 ? result : spare.subarray(2 * n, 3 * n);
   let nextOrder = passes % 2 === 0 ? spare.subarray(2 * n, 3 * n) : result;
   for (let i = 0; i < n; i++) order[i] = i;
