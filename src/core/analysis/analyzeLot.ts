@@ -165,6 +165,27 @@ function slotsOf(wk: WaferWork, col: SortedColumn, buffers: Buffers): { sites: n
 /** Ranks and the log10|Ioff| column kept for an Ion-Ioff pair until both members are done. */
 interface PairRanks { wafer: Float32Array[]; site: Float32Array[]; lot: Float32Array[]; lotSite: Float32Array[]; log: Float64Array[] }
 
+// The per-element loops live in small functions of their own: called for every wafer, they are
+// optimised at once, where a loop inside the long per-lot function would run in a slower tier
+// (boxing every double) for most of a lot.
+
+/** target[die[k]] = values[k]. */
+function scatterByDie(values: Float64Array, die: Uint32Array, target: Float64Array): void {
+  for (let k = 0; k < values.length; k++) target[die[k]] = values[k];
+}
+
+/** The lot's analysis-scale stream, gathered from the wafers' (the zeros, first in the merged
+ * stream, have none). */
+function gatherScaled(merged: { sorted: Float64Array; wafer: Uint16Array; position: Uint32Array }, zeros: number, parts: SortedColumn[], into: Float64Array): void {
+  const partScaled = parts.map((c) => c.scaled);
+  const partZeros = Int32Array.from(parts, (c) => c.zeros);
+  const { wafer, position } = merged;
+  for (let k = zeros; k < merged.sorted.length; k++) {
+    const p = wafer[k];
+    into[k - zeros] = partScaled[p][position[k] - partZeros[p]];
+  }
+}
+
 function addReason(work: WaferWork, die: number, reason: Reason): void {
   const list = work.reasons.get(die);
   if (list) list.push(reason); else work.reasons.set(die, [reason]);
@@ -350,7 +371,7 @@ export function analyzeParamGroup(
       const keepLog = ranks !== undefined && pair!.ioff === param.name;
       if (wantNnr || keepLog) {
         const perDie = keepLog ? ranks!.log[w] : buffers.f64('perDie', n).fill(NaN);
-        for (let k = 0; k < col.scaled.length; k++) perDie[col.scaledOrder[k]] = col.scaled[k];
+        scatterByDie(col.scaled, col.scaledOrder, perDie);
         if (wantNnr) {
           wk.hood ??= hoodOf(wk.frame);
           flagNnr(param.name, col.scale, raw, nnrResiduals(perDie, wk.hood, buffers), settings.nnrLimit, (die, r) => addReason(wk, die, r), buffers);
@@ -364,18 +385,11 @@ export function analyzeParamGroup(
     const present = columns.map((c, w) => ({ c, w })).filter((e): e is { c: SortedColumn; w: number } => e.c !== undefined);
     if (present.length > 0) {
       const merged = mergeSorted(present.map((e) => e.c), buffers);
-      let zeros = 0;
-      if (current) while (zeros < merged.sorted.length && merged.sorted[zeros] === 0) zeros++;
+      const zeros = present.reduce((n, e) => n + e.c.zeros, 0);
       let lotScaled: Float64Array | undefined;
       if (current) {
         lotScaled = buffers.f64('lotStream.scaled', merged.sorted.length - zeros);
-        const partScaled = present.map((e) => e.c.scaled);
-        const partZeros = Int32Array.from(present, (e) => e.c.zeros);
-        const { wafer, position } = merged;
-        for (let k = zeros; k < merged.sorted.length; k++) {
-          const p = wafer[k];
-          lotScaled[k - zeros] = partScaled[p][position[k] - partZeros[p]];
-        }
+        gatherScaled(merged, zeros, present.map((e) => e.c), lotScaled);
       }
       const scaledLot = lotScaled ?? merged.sorted;
       const summary = streamSummary(param.unit, merged.sorted, lotScaled, combined('lot'));

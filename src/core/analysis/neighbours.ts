@@ -86,7 +86,7 @@ export function nnrResiduals(values: Float64Array, hood: Neighbourhood, buffers?
     if (v !== v) { residual[i] = NaN; continue; }
     const s = start[i];
     // False when a neighbour is missing or off the wafer: then the general path counts the rest.
-    if (padded && residualAround(padded, cell![i], paddedWidth!, v, residual, i)) { count[i] = 8; continue; }
+    if (padded && residualAround(padded, cell![i], paddedWidth!, values, residual, i)) { count[i] = 8; continue; }
     let m = 0;
     for (let k = s; k < start[i + 1] && m < 64; k++) {
       const w = values[list[k]];
@@ -111,11 +111,11 @@ export function nnrResiduals(values: Float64Array, hood: Neighbourhood, buffers?
  * of 8 without sorting all of them. Each half (the row above with the left cell, the right cell
  * with the row below) is sorted by a 5-comparator network (Knuth, TAOCP vol. 3, §5.3.4); for two
  * sorted quadruples a and b, the 4th smallest of the union is max_i min(a_i, b_{3-i}) and the
- * 5th is min_i max(a_i, b_{3-i}). Branch-free. Writes v - median into residual[i] and says so,
- * or writes nothing when any of the 8 is NaN. (It stores the result rather than returning it: a
- * returned double is boxed on the heap, millions of times per lot.)
+ * 5th is min_i max(a_i, b_{3-i}). Branch-free. Writes values[i] - median into residual[i] and
+ * says so, or writes nothing when any of the 8 is NaN. (No double crosses the call, in or out: a
+ * double argument or result is boxed on the heap, millions of times per lot.)
  */
-function residualAround(padded: Float64Array, c: number, w: number, v: number, residual: Float64Array, i: number): boolean {
+function residualAround(padded: Float64Array, c: number, w: number, values: Float64Array, residual: Float64Array, i: number): boolean {
   let a0 = padded[c - w - 1], a1 = padded[c - w], a2 = padded[c - w + 1], a3 = padded[c - 1];
   let b0 = padded[c + 1], b1 = padded[c + w - 1], b2 = padded[c + w], b3 = padded[c + w + 1];
   let t: number;
@@ -133,7 +133,7 @@ function residualAround(padded: Float64Array, c: number, w: number, v: number, r
   const upper = Math.min(Math.max(a0, b3), Math.max(a1, b2), Math.max(a2, b1), Math.max(a3, b0));
   const median = lower + 0.5 * (upper - lower);
   if (median !== median) return false;
-  residual[i] = v - median;
+  residual[i] = values[i] - median;
   return true;
 }
 
