@@ -36,6 +36,7 @@ async function start(): Promise<void> {
     workerUrl: pathToFileURL(join(projectRoot(), 'dist', 'node', 'worker.mjs')),
     nativeBinding: process.env.OFFSTATE_SQLITE_BINDING,
     recentFile: join(dataDir, 'recent-databases.json'),
+    warmAnalysis: true,
   });
   registerIpc(service, contents);
   if (process.argv.includes('--demo')) {

@@ -11,7 +11,7 @@ import type { WaferFrame } from '../core/frame';
 import { geometryFromWcr, type WaferGeometry } from '../core/spatial';
 import type { DisplaySettings } from '../shared/api';
 import { loadWaferGeometry } from './importStore';
-import { analyzeLotInParallel } from './parallelAnalysis';
+import { analyzeLotInParallel, type HelperPool } from './parallelAnalysis';
 import { getSetting, listLots, listWaferNames, loadLot, loadWafer } from './store/repository';
 
 const NOTCH_SIDE = { down: 'bottom', up: 'top', left: 'left', right: 'right' } as const;
@@ -99,9 +99,9 @@ export function analyzeStoredLot(db: Db, lot: string, onProgress?: (done: number
   return analyzeLot(frames, { settings: readAnalysisSettings(db), history: readHistory(db, lot), onProgress, geometry: waferGeometryOf(db) });
 }
 
-/** The same analysis on several cores when a worker script is given (parallelAnalysis.ts). */
+/** The same analysis on several cores when a helper pool is given (parallelAnalysis.ts). */
 export function analyzeStoredLotInParallel(
-  db: Db, lot: string, options: { onProgress?: (done: number, total: number) => void; workerUrl?: URL; threads?: number } = {},
+  db: Db, lot: string, options: { onProgress?: (done: number, total: number) => void; pool?: HelperPool; threads?: number } = {},
 ): Promise<LotAnalysis> {
   const frames = loadLot(db, lot);
   return analyzeLotInParallel(frames, { ...options, settings: readAnalysisSettings(db), history: readHistory(db, lot), geometry: waferGeometryOf(db) });

@@ -12,6 +12,7 @@ import { importAnyFile, previewFile } from './importAny';
 import { resolveMapping, saveMapping } from './importMappings';
 import type { ImportPreview } from '../core/import';
 import { analyzeStoredLotInParallel } from './analysisStore';
+import { HelperPool } from './parallelAnalysis';
 import { OffstateService } from './service';
 import { startServer } from './server';
 import { defaultDatabasePath, demoLotPath, recentDatabasesFile, uiDir } from './paths';
@@ -126,11 +127,11 @@ async function previewCommand(files: string[], dbOption: string | undefined, map
   }
 }
 
-/** The worker script beside the bundled CLI (dist/node/worker.mjs), for the analysis's helper
- * threads; none when run unbundled. */
-function helperScript(): URL | undefined {
+/** Helper threads for the analysis, from the worker script beside the bundled CLI
+ * (dist/node/worker.mjs); none when run unbundled. */
+function helperPool(): HelperPool | undefined {
   const url = new URL('./worker.mjs', import.meta.url);
-  return existsSync(fileURLToPath(url)) ? url : undefined;
+  return existsSync(fileURLToPath(url)) ? new HelperPool(url) : undefined;
 }
 
 function mergeAnalyses(analyses: LotAnalysis[]): LotAnalysis {
@@ -149,13 +150,14 @@ async function analyzeCommand(files: string[], json: boolean, dbOption: string |
   const analyses: LotAnalysis[] = [];
   const scratch = openDatabase(':memory:');
   let scratchUsed = false;
+  const pool = helperPool();
   try {
     for (const file of sources) {
       if (!existsSync(file)) { process.stderr.write(`offstate analyze: ${file} does not exist.\n`); return 2; }
       if (isSqliteFile(file)) {
         const db = openDatabase(file, { readonly: true });
         try {
-          for (const lot of listLots(db)) analyses.push(await analyzeStoredLotInParallel(db, lot.lot, { workerUrl: helperScript() }));
+          for (const lot of listLots(db)) analyses.push(await analyzeStoredLotInParallel(db, lot.lot, { pool }));
         } finally {
           db.close();
         }
@@ -167,11 +169,12 @@ async function analyzeCommand(files: string[], json: boolean, dbOption: string |
         }
       }
     }
-    if (scratchUsed) for (const lot of listLots(scratch)) analyses.push(await analyzeStoredLotInParallel(scratch, lot.lot, { workerUrl: helperScript() }));
+    if (scratchUsed) for (const lot of listLots(scratch)) analyses.push(await analyzeStoredLotInParallel(scratch, lot.lot, { pool }));
   } catch (error) {
     process.stderr.write(`offstate analyze: ${(error as Error).message}\n`);
     return 1;
   } finally {
+    pool?.close();
     scratch.close();
   }
   if (analyses.length === 0) { process.stderr.write('offstate analyze: no lots found.\n'); return 1; }
@@ -197,7 +200,7 @@ async function analyzeCommand(files: string[], json: boolean, dbOption: string |
 async function serveCommand(dbOption: string | undefined, port: number, demo: boolean): Promise<number> {
   const dbPath = resolve(dbOption ?? defaultDatabasePath());
   mkdirSync(dirname(dbPath), { recursive: true });
-  const service = new OffstateService({ dbPath, mode: 'browser', workerUrl: new URL('./worker.mjs', import.meta.url), recentFile: process.env.OFFSTATE_RECENT_FILE ?? recentDatabasesFile() });
+  const service = new OffstateService({ dbPath, mode: 'browser', workerUrl: new URL('./worker.mjs', import.meta.url), recentFile: process.env.OFFSTATE_RECENT_FILE ?? recentDatabasesFile(), warmAnalysis: true });
   if (demo) {
     const result = await service.importFile(demoLotPath());
     process.stdout.write(result.status === 'imported' ? `Demo lot imported into ${dbPath}.\n` : `Demo lot already in ${dbPath}.\n`);
@@ -218,7 +221,8 @@ async function exportCommand(lot: string | undefined, outOption: string | undefi
   try {
     const summary = listLots(db).find((l) => l.lot === lot);
     if (!summary) { process.stderr.write(`offstate export: no lot ${lot} in ${dbPath}.\n`); return 1; }
-    const analysis = await analyzeStoredLotInParallel(db, lot, { workerUrl: helperScript() });
+    const pool = helperPool();
+    const analysis = await analyzeStoredLotInParallel(db, lot, { pool }).finally(() => pool?.close());
     const text = json ? JSON.stringify(jsonReport(analysis), null, 1) + '\n' : flaggedCsv(analysis, summary.params);
     const target = resolve(outOption ?? safeFileName(`${lot}-flagged`, json ? 'json' : 'csv'));
     writeNewFile(target, text, force);

@@ -4,6 +4,10 @@
 // thread joins them (GDBN, trade-off bands, mechanism, flagged list, spatial labels). The joined
 // result is exactly the single-threaded one (tests/core/analysis/paramGroups.test.ts,
 // tests/node/parallelAnalysis.test.ts).
+//
+// Helpers are kept between analyses (HelperPool): a new thread compiles the analysis code from
+// scratch, which costs about as much CPU as a fifth of a full-size analysis; a kept one has it
+// optimised already, and `warm` lets a pool do that before the first real lot arrives.
 
 import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
@@ -12,19 +16,23 @@ import {
   type AnalyzeOptions, type LotAnalysis, type ParamGroupResult,
 } from '../core/analysis';
 import type { WaferFrame } from '../core/frame';
+import { generateLot } from '../core/generator';
 
-/** What a helper worker is given: one lot's frames with only the group's columns. */
+/** What a helper is asked: analyse one parameter group of one lot's frames (only its columns). */
 export interface GroupRequest {
-  task: 'analyze-group';
+  id: number;
   frames: WaferFrame[];
   names: string[];
   options: Pick<AnalyzeOptions, 'settings' | 'history'>;
 }
 
 export type GroupMessage =
-  | { type: 'progress'; fraction: number }
-  | { type: 'result'; result: ParamGroupResult }
-  | { type: 'error'; name: string; message: string };
+  | { id: number; type: 'progress'; fraction: number }
+  | { id: number; type: 'result'; result: ParamGroupResult }
+  | { id: number; type: 'error'; name: string; message: string };
+
+/** workerData of a helper thread started from the worker script. */
+export const HELPER_TASK = 'analysis-helper';
 
 /** Threads the analysis may use: OFFSTATE_ANALYSIS_THREADS when set (1 turns the split off),
  * else every core up to four (more gives little: a lot has few parameter groups). */
@@ -42,36 +50,96 @@ function withOnly(frames: WaferFrame[], names: string[]): WaferFrame[] {
   }));
 }
 
-function runGroup(workerUrl: URL, request: GroupRequest, onFraction: (fraction: number) => void): { promise: Promise<ParamGroupResult>; stop: () => void } {
-  const worker = new Worker(workerUrl, { workerData: request });
-  let settled = false;
-  const promise = new Promise<ParamGroupResult>((resolve, reject) => {
-    worker.on('message', (m: GroupMessage) => {
-      if (m.type === 'progress') onFraction(m.fraction);
-      else if (m.type === 'result') { settled = true; resolve(m.result); }
-      else { settled = true; reject(Object.assign(new Error(m.message), { name: m.name })); }
+interface Helper { worker: Worker; busy: boolean }
+
+/**
+ * Helper threads kept for the analyses of one process (or one worker). Each answers one group
+ * at a time; a helper that fails is dropped and a new one started next time.
+ */
+export class HelperPool {
+  private readonly helpers: Helper[] = [];
+  private nextId = 1;
+  private closed = false;
+
+  constructor(private readonly workerUrl: URL) {}
+
+  /** Analyses one group on a free helper (starting one if none is free). */
+  run(frames: WaferFrame[], names: string[], options: GroupRequest['options'], onFraction: (fraction: number) => void): Promise<ParamGroupResult> {
+    if (this.closed) return Promise.reject(new Error('The analysis helpers are closed.'));
+    let helper = this.helpers.find((h) => !h.busy);
+    if (!helper) {
+      const worker = new Worker(this.workerUrl, { workerData: { task: HELPER_TASK } });
+      worker.unref();
+      helper = { worker, busy: false };
+      this.helpers.push(helper);
+    }
+    const h = helper;
+    h.busy = true;
+    h.worker.ref();
+    const id = this.nextId++;
+    return new Promise<ParamGroupResult>((resolve, reject) => {
+      const done = () => {
+        h.worker.off('message', onMessage);
+        h.worker.off('error', onError);
+        h.worker.off('exit', onExit);
+        h.busy = false;
+        h.worker.unref();
+      };
+      const drop = () => {
+        const at = this.helpers.indexOf(h);
+        if (at >= 0) this.helpers.splice(at, 1);
+        void h.worker.terminate();
+      };
+      const onMessage = (m: GroupMessage) => {
+        if (m.id !== id) return;
+        if (m.type === 'progress') { onFraction(m.fraction); return; }
+        done();
+        if (m.type === 'result') resolve(m.result);
+        else reject(Object.assign(new Error(m.message), { name: m.name }));
+      };
+      const onError = (error: Error) => { done(); drop(); reject(error); };
+      const onExit = (code: number) => { done(); drop(); reject(new Error(`An analysis helper thread stopped unexpectedly (exit code ${code}).`)); };
+      h.worker.on('message', onMessage);
+      h.worker.on('error', onError);
+      h.worker.on('exit', onExit);
+      const request: GroupRequest = { id, frames, names, options };
+      h.worker.postMessage(request);
     });
-    worker.on('error', (error) => { settled = true; reject(error); });
-    worker.on('exit', (code) => { if (!settled) reject(new Error(`An analysis helper thread stopped unexpectedly (exit code ${code}).`)); });
-  });
-  return { promise, stop: () => void worker.terminate() };
+  }
+
+  /** Compiles the analysis code in this thread and in `threads - 1` helpers on a small invented
+   * lot, so the first real analysis runs at full speed. */
+  async warm(threads = analysisThreads()): Promise<void> {
+    const lot = generateLot({
+      seed: 1, lot: 'WARM-UP', waferCount: 3,
+      layout: { waferDiameterMm: 200, edgeExclusionMm: 3, dieWidthMm: 2.2, dieHeightMm: 2.2, sitesX: 2, sitesY: 2, shotX: 4, shotY: 4 },
+    }).wafers;
+    for (let round = 0; round < 3; round++) await analyzeLotInParallel(lot, { pool: this, threads });
+  }
+
+  close(): void {
+    this.closed = true;
+    for (const h of this.helpers) void h.worker.terminate();
+    this.helpers.length = 0;
+  }
 }
 
 export interface ParallelOptions extends AnalyzeOptions {
-  /** The worker script that answers GroupRequest (dist/node/worker.mjs). */
-  workerUrl?: URL;
+  /** Helper threads to run the other groups on. */
+  pool?: HelperPool;
   /** Threads to use, this one included (default analysisThreads()). */
   threads?: number;
 }
 
 /**
- * `analyzeLot` on up to `threads` threads for one lot's frames. Without a worker script, with one
- * thread, or with too few parameters to split, it is `analyzeLot` itself.
+ * `analyzeLot` on up to `threads` threads for one lot's frames. Without a pool, with one thread,
+ * or with too few parameters to split, it is `analyzeLot` itself.
  */
 export async function analyzeLotInParallel(frames: WaferFrame[], options: ParallelOptions = {}): Promise<LotAnalysis> {
   const threads = options.threads ?? analysisThreads();
   const lots = new Set(frames.map((f) => f.lot));
-  const groups = options.workerUrl && threads > 1 && lots.size === 1 ? planParamGroups(frames, threads) : [];
+  const pool = options.pool;
+  const groups = pool && threads > 1 && lots.size === 1 ? planParamGroups(frames, threads) : [];
   if (groups.length < 2) return analyzeLot(frames, options);
 
   const settings = resolveSettings(options.settings);
@@ -81,25 +149,25 @@ export async function analyzeLotInParallel(frames: WaferFrame[], options: Parall
   const fractions = groups.map(() => 0);
   const weights = groups.map((g) => g.length / (groups.flat().length + 1));
   const report = () => options.onProgress?.(Math.floor(total * fractions.reduce((s, f, i) => s + f * weights[i], 0)), total);
-  const helpers = groups.slice(1).map((names, i) =>
-    runGroup(options.workerUrl!, { task: 'analyze-group', frames: withOnly(frames, names), names, options: shared }, (f) => { fractions[i + 1] = f; report(); }));
-  try {
-    const own = analyzeParamGroup(frames, groups[0], { ...shared, onProgress: (f) => { fractions[0] = f; report(); } });
-    const others = await Promise.all(helpers.map((h) => h.promise));
-    const result = analyzeLotFromGroups(frames, [own, ...others], { settings, history: options.history, geometry: options.geometry });
-    options.onProgress?.(total, total);
-    return result;
-  } finally {
-    for (const h of helpers) h.stop();
-  }
+  const helpers = groups.slice(1).map((names, i) => pool!.run(withOnly(frames, names), names, shared, (f) => { fractions[i + 1] = f; report(); }));
+  // A helper's failure is reported once all have settled, never as an unhandled rejection.
+  const settled = Promise.allSettled(helpers);
+  const own = analyzeParamGroup(frames, groups[0], { ...shared, onProgress: (f) => { fractions[0] = f; report(); } });
+  const others = (await settled).map((r) => { if (r.status === 'rejected') throw r.reason; return r.value; });
+  const result = analyzeLotFromGroups(frames, [own, ...others], { settings, history: options.history, geometry: options.geometry });
+  options.onProgress?.(total, total);
+  return result;
 }
 
-/** The helper side: analyses the group it was given and posts the result. */
-export function answerGroupRequest(request: GroupRequest, post: (m: GroupMessage) => void): void {
-  try {
-    const result = analyzeParamGroup(request.frames, request.names, { ...request.options, onProgress: (fraction) => post({ type: 'progress', fraction }) });
-    post({ type: 'result', result });
-  } catch (error) {
-    post({ type: 'error', name: (error as Error).name, message: (error as Error).message });
-  }
+/** The helper side: answers group requests until the thread is stopped. */
+export function serveGroupRequests(port: { on(event: 'message', listener: (m: GroupRequest) => void): void; postMessage(m: GroupMessage): void }): void {
+  port.on('message', (request) => {
+    const post = (m: GroupMessage) => port.postMessage(m);
+    try {
+      const result = analyzeParamGroup(request.frames, request.names, { ...request.options, onProgress: (fraction) => post({ id: request.id, type: 'progress', fraction }) });
+      post({ id: request.id, type: 'result', result });
+    } catch (error) {
+      post({ id: request.id, type: 'error', name: (error as Error).name, message: (error as Error).message });
+    }
+  });
 }

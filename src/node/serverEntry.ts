@@ -14,7 +14,7 @@ async function run(): Promise<void> {
   });
   const dbPath = resolve(values.db ?? defaultDatabasePath());
   mkdirSync(dirname(dbPath), { recursive: true });
-  const service = new OffstateService({ dbPath, mode: 'browser', workerUrl: new URL('./worker.mjs', import.meta.url), recentFile: process.env.OFFSTATE_RECENT_FILE ?? recentDatabasesFile() });
+  const service = new OffstateService({ dbPath, mode: 'browser', workerUrl: new URL('./worker.mjs', import.meta.url), recentFile: process.env.OFFSTATE_RECENT_FILE ?? recentDatabasesFile(), warmAnalysis: true });
   const files = [...(values.demo ? [demoLotPath()] : []), ...(values.import ?? [])];
   for (const file of files) {
     const result = await service.importFile(file);

@@ -16,6 +16,7 @@ import { importAnyFile, previewFile, previewHead } from './importAny';
 import { listMappings, resolveMapping, saveMapping } from './importMappings';
 import { analyzeStoredLot } from './analysisStore';
 import { runInWorker, type RunningJob } from './jobs';
+import { AnalysisWorker } from './analysisWorker';
 import { VERSION } from './version';
 import { loadLotColumn, readFaEdits, readStoredSettings, writeFaEdits, writeStoredSettings } from './viewStore';
 import type { FaEdit, StoredSettings, WaferColumn } from '../shared/api';
@@ -28,6 +29,9 @@ export interface ServiceOptions {
   nativeBinding?: string;
   /** File keeping the recently opened databases; without it only the current one is listed. */
   recentFile?: string;
+  /** Start the analysis thread at once and compile the analysis on a small invented lot, so the
+   * first real analysis runs at full speed (the app; not for tests or one-off tools). */
+  warmAnalysis?: boolean;
 }
 
 export class OffstateService implements OffstateApi {
@@ -41,11 +45,15 @@ export class OffstateService implements OffstateApi {
   private importQueue: Promise<unknown> = Promise.resolve();
 
   private readonly options: ServiceOptions;
+  /** The analysis thread kept between analyses (with a worker script only). */
+  private readonly analysisThread?: AnalysisWorker;
 
   constructor(options: ServiceOptions) {
     this.options = { ...options };
     this.db = openDatabase(options.dbPath, { nativeBinding: options.nativeBinding });
     if (options.recentFile) rememberDatabase(options.recentFile, options.dbPath);
+    if (options.workerUrl) this.analysisThread = new AnalysisWorker(options.workerUrl);
+    if (options.warmAnalysis) this.analysisThread?.warm();
   }
 
   async listDatabases(): Promise<DatabaseList> {
@@ -69,6 +77,7 @@ export class OffstateService implements OffstateApi {
 
   close(): void {
     for (const job of this.jobs.values()) job.cancel();
+    this.analysisThread?.close();
     this.db.close();
   }
 
@@ -187,9 +196,10 @@ export class OffstateService implements OffstateApi {
   async analyzeLot(lot: string): Promise<LotAnalysis> {
     const cached = this.analysisCache.get(lot);
     if (cached && cached.version === this.dataVersion) return cached.result;
-    const { workerUrl, dbPath, nativeBinding } = this.options;
-    const result = this.track<LotAnalysis>('analysis', 'wafers', workerUrl
-      ? (report) => runInWorker<LotAnalysis>(workerUrl, { task: 'analyze', dbPath, lot, nativeBinding }, report)
+    const { dbPath, nativeBinding } = this.options;
+    const thread = this.analysisThread;
+    const result = this.track<LotAnalysis>('analysis', 'wafers', thread
+      ? (report) => thread.analyze(dbPath, lot, report, nativeBinding)
       : this.inThread((_signal, report) => analyzeStoredLot(this.db, lot, report)));
     this.analysisCache.set(lot, { version: this.dataVersion, result });
     result.catch(() => this.analysisCache.delete(lot));

@@ -1,21 +1,29 @@
-// Worker-thread entry for long jobs: opens its own connection to the database and runs one
-// import or one analysis, posting progress and the result back to the parent. An analysis uses
-// this same script for its helper threads (parallelAnalysis.ts): those get their columns in the
-// request and never open the database.
+// Worker-thread entry. One script, started in three ways (its workerData says which):
+// - a one-off job (JobRequest: an import, or an analysis) that opens its own connection to the
+//   database, posts progress and the result, and ends;
+// - the analysis service (ANALYSIS_SERVICE_TASK): kept by the app between analyses so its code
+//   stays compiled, it takes AnalysisRequests one at a time (analysisWorker.ts);
+// - an analysis helper (HELPER_TASK): analyses parameter groups for one of those
+//   (parallelAnalysis.ts); it gets the columns in the request and never opens the database.
 
 import { parentPort, workerData } from 'node:worker_threads';
 import type { JobMessage, JobRequest } from './jobs';
 import { openDatabase } from './store/database';
 import { importAnyFile } from './importAny';
 import { analyzeStoredLotInParallel } from './analysisStore';
-import { answerGroupRequest, type GroupMessage, type GroupRequest } from './parallelAnalysis';
+import { HELPER_TASK, HelperPool, serveGroupRequests } from './parallelAnalysis';
+import { ANALYSIS_SERVICE_TASK, serveAnalysisRequests } from './analysisWorker';
 
-const request = workerData as JobRequest | GroupRequest;
-const controller = new AbortController();
-const post = (m: JobMessage | GroupMessage) => parentPort!.postMessage(m);
+const port = parentPort!;
+const data = workerData as JobRequest | { task: typeof HELPER_TASK } | { task: typeof ANALYSIS_SERVICE_TASK };
+const scriptUrl = new URL(import.meta.url);
 
-async function main(job: JobRequest): Promise<void> {
+async function runJob(job: JobRequest): Promise<void> {
+  const controller = new AbortController();
+  port.on('message', (m: { type: string }) => { if (m.type === 'cancel') controller.abort(); });
+  const post = (m: JobMessage) => port.postMessage(m);
   const db = openDatabase(job.dbPath, { nativeBinding: job.nativeBinding });
+  const pool = job.task === 'analyze' ? new HelperPool(scriptUrl) : undefined;
   try {
     if (job.task === 'import') {
       const result = await importAnyFile(db, job.path, {
@@ -27,21 +35,15 @@ async function main(job: JobRequest): Promise<void> {
       });
       post({ type: 'result', result });
     } else {
-      const result = await analyzeStoredLotInParallel(db, job.lot, {
-        workerUrl: new URL(import.meta.url),
-        onProgress: (done, total) => post({ type: 'progress', done, total }),
-      });
+      const result = await analyzeStoredLotInParallel(db, job.lot, { pool, onProgress: (done, total) => post({ type: 'progress', done, total }) });
       post({ type: 'result', result });
     }
   } finally {
+    pool?.close();
     db.close();
   }
 }
 
-if (request.task === 'analyze-group') {
-  // Posts its result and ends; the parent stops it outright if the analysis is cancelled.
-  answerGroupRequest(request, post);
-} else {
-  parentPort!.on('message', (m: { type: string }) => { if (m.type === 'cancel') controller.abort(); });
-  main(request).catch((error: Error) => post({ type: 'error', name: error.name, message: error.message }));
-}
+if (data.task === HELPER_TASK) serveGroupRequests(port);
+else if (data.task === ANALYSIS_SERVICE_TASK) serveAnalysisRequests(port, new HelperPool(scriptUrl));
+else runJob(data).catch((error: Error) => port.postMessage({ type: 'error', name: error.name, message: error.message } satisfies JobMessage));

@@ -1,0 +1,138 @@
+// The app's analysis thread, kept between analyses: started once (and warmed on a small invented
+// lot when asked), it analyses stored lots one at a time with its own helper threads
+// (parallelAnalysis.ts), so neither the app's thread nor a fresh thread's compile time is in
+// the way. Cancelling the running analysis stops the thread (a synchronous step cannot be
+// interrupted); the next analysis starts a new one.
+
+import { Worker } from 'node:worker_threads';
+import type { LotAnalysis } from '../shared/api';
+import { analyzeStoredLotInParallel } from './analysisStore';
+import { JobError, type RunningJob } from './jobs';
+import type { HelperPool } from './parallelAnalysis';
+import { openDatabase } from './store/database';
+
+/** workerData of the analysis thread started from the worker script. */
+export const ANALYSIS_SERVICE_TASK = 'analysis-service';
+
+export type AnalysisRequest =
+  | { type: 'analyze'; id: number; dbPath: string; lot: string; nativeBinding?: string }
+  | { type: 'drop'; id: number }
+  | { type: 'warm' };
+
+export type AnalysisReply =
+  | { id: number; type: 'started' }
+  | { id: number; type: 'progress'; done: number; total: number }
+  | { id: number; type: 'result'; result: LotAnalysis }
+  | { id: number; type: 'error'; name: string; message: string };
+
+interface Pending {
+  resolve: (result: LotAnalysis) => void;
+  reject: (error: Error) => void;
+  onProgress: (done: number, total: number) => void;
+}
+
+export class AnalysisWorker {
+  private worker?: Worker;
+  private readonly pending = new Map<number, Pending>();
+  private running?: number;
+  private nextId = 1;
+
+  constructor(private readonly workerUrl: URL) {}
+
+  private thread(): Worker {
+    if (this.worker) return this.worker;
+    const worker = new Worker(this.workerUrl, { workerData: { task: ANALYSIS_SERVICE_TASK } });
+    worker.unref();
+    worker.on('message', (m: AnalysisReply) => {
+      const p = this.pending.get(m.id);
+      if (!p) return;
+      if (m.type === 'started') this.running = m.id;
+      else if (m.type === 'progress') p.onProgress(m.done, m.total);
+      else {
+        this.pending.delete(m.id);
+        if (this.pending.size === 0) worker.unref();
+        if (this.running === m.id) this.running = undefined;
+        if (m.type === 'result') p.resolve(m.result);
+        else p.reject(new JobError(m.name, m.message));
+      }
+    });
+    const fail = (error: Error) => {
+      if (this.worker !== worker) return;
+      this.worker = undefined;
+      this.running = undefined;
+      const all = [...this.pending.values()];
+      this.pending.clear();
+      for (const p of all) p.reject(error);
+    };
+    worker.on('error', fail);
+    worker.on('exit', (code) => fail(new JobError('WorkerExit', `The analysis thread stopped unexpectedly (exit code ${code}).`)));
+    this.worker = worker;
+    return worker;
+  }
+
+  /** Starts the thread and has it compile the analysis on a small invented lot. */
+  warm(): void {
+    this.thread().postMessage({ type: 'warm' } satisfies AnalysisRequest);
+  }
+
+  analyze(dbPath: string, lot: string, onProgress: (done: number, total: number) => void, nativeBinding?: string): RunningJob<LotAnalysis> {
+    const id = this.nextId++;
+    const promise = new Promise<LotAnalysis>((resolve, reject) => {
+      this.pending.set(id, { resolve, reject, onProgress });
+      // Kept alive while an analysis is pending; idle, it never holds the process open.
+      this.thread().ref();
+      this.thread().postMessage({ type: 'analyze', id, dbPath, lot, nativeBinding } satisfies AnalysisRequest);
+    });
+    return {
+      promise,
+      cancel: () => {
+        const p = this.pending.get(id);
+        if (!p) return;
+        this.pending.delete(id);
+        if (this.pending.size === 0) this.worker?.unref();
+        p.reject(new JobError('CancelledError', 'Cancelled; nothing was stored.'));
+        if (this.running === id) {
+          // Busy in a synchronous step: stop the thread; analyses queued behind it start again on a new one.
+          const worker = this.worker;
+          this.worker = undefined;
+          this.running = undefined;
+          const queued = [...this.pending.entries()];
+          this.pending.clear();
+          void worker?.terminate();
+          for (const [, q] of queued) q.reject(new JobError('CancelledError', 'Stopped with the cancelled analysis before it began; run it again.'));
+        } else {
+          this.worker?.postMessage({ type: 'drop', id } satisfies AnalysisRequest);
+        }
+      },
+    };
+  }
+
+  close(): void {
+    const worker = this.worker;
+    this.worker = undefined;
+    void worker?.terminate();
+  }
+}
+
+/** The analysis thread's side: one request at a time, in the order they came. */
+export function serveAnalysisRequests(port: { on(event: 'message', listener: (m: AnalysisRequest) => void): void; postMessage(m: AnalysisReply): void }, pool: HelperPool): void {
+  const dropped = new Set<number>();
+  let queue: Promise<void> = Promise.resolve();
+  port.on('message', (m) => {
+    if (m.type === 'drop') { dropped.add(m.id); return; }
+    if (m.type === 'warm') { queue = queue.then(() => pool.warm()).catch(() => undefined); return; }
+    queue = queue.then(async () => {
+      if (dropped.delete(m.id)) return;
+      port.postMessage({ id: m.id, type: 'started' });
+      const db = openDatabase(m.dbPath, { nativeBinding: m.nativeBinding });
+      try {
+        const result = await analyzeStoredLotInParallel(db, m.lot, { pool, onProgress: (done, total) => port.postMessage({ id: m.id, type: 'progress', done, total }) });
+        port.postMessage({ id: m.id, type: 'result', result });
+      } catch (error) {
+        port.postMessage({ id: m.id, type: 'error', name: (error as Error).name, message: (error as Error).message });
+      } finally {
+        db.close();
+      }
+    });
+  });
+}
