@@ -2,7 +2,7 @@
 // store as the reference for static PAT (AEC-Q001) and for excursion scores against history.
 
 import {
-  analyzeLot, PAT_IQR_DIVISOR, resolveSettings, type AnalysisHistory, type AnalysisSettings, type LotAnalysis, type StaticReference,
+  analyzeLot, PAT_IQR_DIVISOR, type AnalysisScratch, resolveSettings, type AnalysisHistory, type AnalysisSettings, type LotAnalysis, type StaticReference,
 } from '../core/analysis';
 import { isCurrentUnit } from '../core/params';
 import { selectQuantilesInPlace } from '../core/stats';
@@ -101,8 +101,9 @@ export function analyzeStoredLot(db: Db, lot: string, onProgress?: (done: number
 
 /** The same analysis on several cores when a helper pool is given (parallelAnalysis.ts). */
 export function analyzeStoredLotInParallel(
-  db: Db, lot: string, options: { onProgress?: (done: number, total: number) => void; pool?: HelperPool; threads?: number } = {},
+  db: Db, lot: string, options: { onProgress?: (done: number, total: number) => void; pool?: HelperPool; threads?: number; scratch?: AnalysisScratch } = {},
 ): Promise<LotAnalysis> {
-  const frames = loadLot(db, lot);
+  // Shared memory: the helpers read the columns where they are.
+  const frames = loadLot(db, lot, { shared: options.pool !== undefined });
   return analyzeLotInParallel(frames, { ...options, settings: readAnalysisSettings(db), history: readHistory(db, lot), geometry: waferGeometryOf(db) });
 }

@@ -8,7 +8,7 @@ import { Worker } from 'node:worker_threads';
 import type { LotAnalysis } from '../shared/api';
 import { analyzeStoredLotInParallel } from './analysisStore';
 import { JobError, type RunningJob } from './jobs';
-import type { HelperPool } from './parallelAnalysis';
+import { KeptScratch, type HelperPool } from './parallelAnalysis';
 import { openDatabase } from './store/database';
 
 /** workerData of the analysis thread started from the worker script. */
@@ -26,6 +26,7 @@ export type AnalysisReply =
   | { id: number; type: 'error'; name: string; message: string };
 
 interface Pending {
+  request: Extract<AnalysisRequest, { type: 'analyze' }>;
   resolve: (result: LotAnalysis) => void;
   reject: (error: Error) => void;
   onProgress: (done: number, total: number) => void;
@@ -33,8 +34,8 @@ interface Pending {
 
 export class AnalysisWorker {
   private worker?: Worker;
+  /** In the order sent, which is the order the thread takes them: the first is running. */
   private readonly pending = new Map<number, Pending>();
-  private running?: number;
   private nextId = 1;
 
   constructor(private readonly workerUrl: URL) {}
@@ -46,12 +47,10 @@ export class AnalysisWorker {
     worker.on('message', (m: AnalysisReply) => {
       const p = this.pending.get(m.id);
       if (!p) return;
-      if (m.type === 'started') this.running = m.id;
-      else if (m.type === 'progress') p.onProgress(m.done, m.total);
-      else {
+      if (m.type === 'progress') p.onProgress(m.done, m.total);
+      else if (m.type !== 'started') {
         this.pending.delete(m.id);
         if (this.pending.size === 0) worker.unref();
-        if (this.running === m.id) this.running = undefined;
         if (m.type === 'result') p.resolve(m.result);
         else p.reject(new JobError(m.name, m.message));
       }
@@ -59,7 +58,6 @@ export class AnalysisWorker {
     const fail = (error: Error) => {
       if (this.worker !== worker) return;
       this.worker = undefined;
-      this.running = undefined;
       const all = [...this.pending.values()];
       this.pending.clear();
       for (const p of all) p.reject(error);
@@ -77,34 +75,39 @@ export class AnalysisWorker {
 
   analyze(dbPath: string, lot: string, onProgress: (done: number, total: number) => void, nativeBinding?: string): RunningJob<LotAnalysis> {
     const id = this.nextId++;
+    const request = { type: 'analyze', id, dbPath, lot, nativeBinding } satisfies AnalysisRequest;
     const promise = new Promise<LotAnalysis>((resolve, reject) => {
-      this.pending.set(id, { resolve, reject, onProgress });
-      // Kept alive while an analysis is pending; idle, it never holds the process open.
-      this.thread().ref();
-      this.thread().postMessage({ type: 'analyze', id, dbPath, lot, nativeBinding } satisfies AnalysisRequest);
+      this.pending.set(id, { request, resolve, reject, onProgress });
+      this.send(request);
     });
     return {
       promise,
       cancel: () => {
         const p = this.pending.get(id);
         if (!p) return;
+        const head = this.pending.keys().next().value === id;
         this.pending.delete(id);
-        if (this.pending.size === 0) this.worker?.unref();
         p.reject(new JobError('CancelledError', 'Cancelled; nothing was stored.'));
-        if (this.running === id) {
-          // Busy in a synchronous step: stop the thread; analyses queued behind it start again on a new one.
+        if (head) {
+          // Running (or about to): a synchronous step cannot be interrupted, so the thread is
+          // stopped and the analyses queued behind it are sent to a new one.
           const worker = this.worker;
           this.worker = undefined;
-          this.running = undefined;
-          const queued = [...this.pending.entries()];
-          this.pending.clear();
           void worker?.terminate();
-          for (const [, q] of queued) q.reject(new JobError('CancelledError', 'Stopped with the cancelled analysis before it began; run it again.'));
+          for (const q of this.pending.values()) this.send(q.request);
         } else {
           this.worker?.postMessage({ type: 'drop', id } satisfies AnalysisRequest);
         }
+        if (this.pending.size === 0) this.worker?.unref();
       },
     };
+  }
+
+  private send(request: AnalysisRequest): void {
+    const thread = this.thread();
+    // Kept alive while an analysis is pending; idle, it never holds the process open.
+    thread.ref();
+    thread.postMessage(request);
   }
 
   close(): void {
@@ -117,20 +120,24 @@ export class AnalysisWorker {
 /** The analysis thread's side: one request at a time, in the order they came. */
 export function serveAnalysisRequests(port: { on(event: 'message', listener: (m: AnalysisRequest) => void): void; postMessage(m: AnalysisReply): void }, pool: HelperPool): void {
   const dropped = new Set<number>();
+  const kept = new KeptScratch();
   let queue: Promise<void> = Promise.resolve();
   port.on('message', (m) => {
     if (m.type === 'drop') { dropped.add(m.id); return; }
     if (m.type === 'warm') { queue = queue.then(() => pool.warm()).catch(() => undefined); return; }
     queue = queue.then(async () => {
+      // Let a 'drop' sent while the previous analysis ran arrive first.
+      await new Promise((resolve) => setImmediate(resolve));
       if (dropped.delete(m.id)) return;
       port.postMessage({ id: m.id, type: 'started' });
       const db = openDatabase(m.dbPath, { nativeBinding: m.nativeBinding });
       try {
-        const result = await analyzeStoredLotInParallel(db, m.lot, { pool, onProgress: (done, total) => port.postMessage({ id: m.id, type: 'progress', done, total }) });
+        const result = await analyzeStoredLotInParallel(db, m.lot, { pool, scratch: kept.take(), onProgress: (done, total) => port.postMessage({ id: m.id, type: 'progress', done, total }) });
         port.postMessage({ id: m.id, type: 'result', result });
       } catch (error) {
         port.postMessage({ id: m.id, type: 'error', name: (error as Error).name, message: (error as Error).message });
       } finally {
+        kept.release();
         db.close();
       }
     });

@@ -12,7 +12,7 @@
 import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import {
-  analyzeLot, analyzeLotFromGroups, analyzeParamGroup, planParamGroups, resolveSettings,
+  AnalysisScratch, analyzeLot, analyzeLotFromGroups, analyzeParamGroup, planParamGroups, resolveSettings,
   type AnalyzeOptions, type LotAnalysis, type ParamGroupResult,
 } from '../core/analysis';
 import type { WaferFrame } from '../core/frame';
@@ -152,22 +152,46 @@ export async function analyzeLotInParallel(frames: WaferFrame[], options: Parall
   const helpers = groups.slice(1).map((names, i) => pool!.run(withOnly(frames, names), names, shared, (f) => { fractions[i + 1] = f; report(); }));
   // A helper's failure is reported once all have settled, never as an unhandled rejection.
   const settled = Promise.allSettled(helpers);
-  const own = analyzeParamGroup(frames, groups[0], { ...shared, onProgress: (f) => { fractions[0] = f; report(); } });
+  const own = analyzeParamGroup(frames, groups[0], { ...shared, scratch: options.scratch, onProgress: (f) => { fractions[0] = f; report(); } });
   const others = (await settled).map((r) => { if (r.status === 'rejected') throw r.reason; return r.value; });
   const result = analyzeLotFromGroups(frames, [own, ...others], { settings, history: options.history, geometry: options.geometry });
   options.onProgress?.(total, total);
   return result;
 }
 
+/** How long a thread keeps its scratch memory after an analysis (a full-size lot's is a few
+ * hundred MB): long enough for the next analysis of a session, not for an idle app. */
+const SCRATCH_KEPT_MS = 120_000;
+
+/** One thread's scratch memory for the analysis, kept between analyses and released when idle. */
+export class KeptScratch {
+  private scratch?: AnalysisScratch;
+  private timer?: NodeJS.Timeout;
+
+  take(): AnalysisScratch {
+    clearTimeout(this.timer);
+    return (this.scratch ??= new AnalysisScratch());
+  }
+
+  release(): void {
+    clearTimeout(this.timer);
+    this.timer = setTimeout(() => { this.scratch = undefined; }, SCRATCH_KEPT_MS);
+    this.timer.unref();
+  }
+}
+
 /** The helper side: answers group requests until the thread is stopped. */
 export function serveGroupRequests(port: { on(event: 'message', listener: (m: GroupRequest) => void): void; postMessage(m: GroupMessage): void }): void {
+  const kept = new KeptScratch();
   port.on('message', (request) => {
     const post = (m: GroupMessage) => port.postMessage(m);
     try {
-      const result = analyzeParamGroup(request.frames, request.names, { ...request.options, onProgress: (fraction) => post({ id: request.id, type: 'progress', fraction }) });
+      const result = analyzeParamGroup(request.frames, request.names, { ...request.options, scratch: kept.take(), onProgress: (fraction) => post({ id: request.id, type: 'progress', fraction }) });
       post({ id: request.id, type: 'result', result });
     } catch (error) {
       post({ id: request.id, type: 'error', name: (error as Error).name, message: (error as Error).message });
+    } finally {
+      kept.release();
     }
   });
 }

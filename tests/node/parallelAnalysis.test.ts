@@ -1,13 +1,18 @@
 // The analysis on several threads (parallelAnalysis.ts, with the built worker script as the
 // helper) must give exactly what one thread gives, through every front door: the store function,
-// the service's job worker (as the app runs it) and the CLI. The oracle is the single-threaded
+// the app's analysis thread (kept between analyses, cancellable) and the CLI; kept helper threads
+// and kept scratch memory change nothing. The oracle is the single-threaded
 // analysis (an invariance check); its values are checked against outside sources elsewhere.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { execFileSync } from 'node:child_process';
 import { existsSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
+import { AnalysisScratch } from '../../src/core/analysis';
 import { analyzeStoredLot, analyzeStoredLotInParallel } from '../../src/node/analysisStore';
+import { AnalysisWorker } from '../../src/node/analysisWorker';
+import { HelperPool } from '../../src/node/parallelAnalysis';
+import { loadLot } from '../../src/node/store/repository';
 import { importDelimitedFile } from '../../src/node/importDelimited';
 import { OffstateService } from '../../src/node/service';
 import { openDatabase } from '../../src/node/store/database';
@@ -37,18 +42,63 @@ describe.skipIf(!existsSync(WORKER))('the analysis on several threads', () => {
     const db = openDatabase(dbPath, { readonly: true });
     try {
       for (const threads of [2, 3]) {
-        const seen: number[] = [];
-        const result = await analyzeStoredLotInParallel(db, 'KX2417.1', { workerUrl: pathToFileURL(WORKER), threads, onProgress: (done, total) => { expect(total).toBe(25); seen.push(done); } });
-        expect(JSON.stringify(result)).toBe(single);
-        expect(seen.at(-1)).toBe(25);
-        expect(seen.every((d, i) => i === 0 || d >= seen[i - 1])).toBe(true);
+        const pool = new HelperPool(pathToFileURL(WORKER));
+        try {
+          // Twice on the same pool and scratch: kept threads and memory change nothing.
+          const scratch = new AnalysisScratch();
+          for (let round = 0; round < 2; round++) {
+            const seen: number[] = [];
+            const result = await analyzeStoredLotInParallel(db, 'KX2417.1', { pool, threads, scratch, onProgress: (done, total) => { expect(total).toBe(25); seen.push(done); } });
+            expect(JSON.stringify(result)).toBe(single);
+            expect(seen.at(-1)).toBe(25);
+            expect(seen.every((d, i) => i === 0 || d >= seen[i - 1])).toBe(true);
+          }
+        } finally {
+          pool.close();
+        }
       }
     } finally {
       db.close();
     }
   });
 
-  it('gives it through the service job worker, as the app runs it', async () => {
+  it('reports a failure in a helper as an error, and the pool goes on', async () => {
+    const db = openDatabase(dbPath, { readonly: true });
+    const pool = new HelperPool(pathToFileURL(WORKER));
+    try {
+      const frames = loadLot(db, 'KX2417.1');
+      // Frames without probe sites make the group's analysis throw in the helper's thread.
+      const broken = frames.map((f) => ({ ...f, site: undefined as unknown as Int32Array }));
+      await expect(pool.run(broken, ['Ioff_p', 'Ion_p'], {}, () => {})).rejects.toThrow();
+      const result = await analyzeStoredLotInParallel(db, 'KX2417.1', { pool, threads: 2 });
+      expect(JSON.stringify(result)).toBe(single);
+    } finally {
+      pool.close();
+      db.close();
+    }
+  });
+
+  it('cancels the running analysis of the app thread and runs the queued one on a new thread', async () => {
+    const thread = new AnalysisWorker(pathToFileURL(WORKER));
+    try {
+      const first = thread.analyze(dbPath, 'KX2417.1', () => {});
+      const queued = thread.analyze(dbPath, 'KX2417.1', () => {});
+      setTimeout(() => first.cancel(), 50);
+      await expect(first.promise).rejects.toMatchObject({ name: 'CancelledError' });
+      // The analysis queued behind it runs on a new thread.
+      expect(JSON.stringify(await queued.promise)).toBe(single);
+      // A queued analysis cancelled before it starts is dropped; the running one goes on.
+      const running = thread.analyze(dbPath, 'KX2417.1', () => {});
+      const dropped = thread.analyze(dbPath, 'KX2417.1', () => {});
+      dropped.cancel();
+      await expect(dropped.promise).rejects.toMatchObject({ name: 'CancelledError' });
+      expect(JSON.stringify(await running.promise)).toBe(single);
+    } finally {
+      thread.close();
+    }
+  });
+
+  it('gives it through the service, on the app analysis thread', async () => {
     const service = new OffstateService({ dbPath, mode: 'browser', workerUrl: pathToFileURL(WORKER) });
     const events: ProgressEvent[] = [];
     service.onProgress((e) => events.push(e));

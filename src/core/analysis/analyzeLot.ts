@@ -47,6 +47,9 @@ export interface AnalyzeOptions {
   /** Known wafer geometry (from the file or the user's settings) for the spatial step; what is
    * not given is inferred from the die grid. */
   geometry?: (frame: WaferFrame) => Partial<WaferGeometry> | undefined;
+  /** Scratch memory kept by the caller between analyses (one per thread, never two analyses at
+   * once): the next lot reuses it instead of allocating and zeroing it again. */
+  scratch?: Buffers;
 }
 
 export function methodDescription(settings: AnalysisSettings): string {
@@ -83,7 +86,7 @@ export function analyzeLot(frames: WaferFrame[], options: AnalyzeOptions = {}): 
   const total = frames.length;
   const lots = lotsOf(frames);
   const results = lots.map((ofLot) => {
-    const result = analyzeOneLot(ofLot, settings, options.history, (fraction) => options.onProgress?.(Math.floor(before + fraction * ofLot.length), total));
+    const result = analyzeOneLot(ofLot, settings, options.history, options.scratch, (fraction) => options.onProgress?.(Math.floor(before + fraction * ofLot.length), total));
     before += ofLot.length;
     return result;
   });
@@ -285,7 +288,7 @@ export interface ParamGroupResult {
  * parameters over the wafers of one lot. Frames need only those parameters' columns.
  */
 export function analyzeParamGroup(
-  frames: WaferFrame[], names: readonly string[], options: Pick<AnalyzeOptions, 'settings' | 'history'> & { onProgress?: (fraction: number) => void; hoods?: NeighbourhoodCache } = {},
+  frames: WaferFrame[], names: readonly string[], options: Pick<AnalyzeOptions, 'settings' | 'history' | 'scratch'> & { onProgress?: (fraction: number) => void; hoods?: NeighbourhoodCache } = {},
 ): ParamGroupResult {
   const settings = resolveSettings(options.settings);
   const history = options.history;
@@ -309,7 +312,7 @@ export function analyzeParamGroup(
   const centres = new Map<string, (WaferCentre | undefined)[]>();
   const kept = new Map<string, PairRanks>();
   const limit = settings.patLimit;
-  const buffers = new Buffers();
+  const buffers = options.scratch ?? new Buffers();
   const hoods = options.hoods ?? new NeighbourhoodCache();
   const hoodOf = (f: WaferFrame): Neighbourhood => hoods.of(f, settings.nnrRadius);
 
@@ -394,7 +397,7 @@ export function analyzeParamGroup(
       const scaledLot = lotScaled ?? merged.sorted;
       const summary = streamSummary(param.unit, merged.sorted, lotScaled, combined('lot'));
       if (summary) lotParams[param.name] = summary;
-      const lotSlots = siteSlots(merged.site);
+      const lotSlots = siteSlots(merged.site, new Int32Array(buffers.u32('lot.slots', merged.site.length).buffer, 0, merged.site.length));
       const lotBySite = splitBySite(merged.sorted, lotSlots, zeros, lotScaled, buffers, 'lot');
       for (const [site, stream] of lotBySite) {
         const s = streamSummary(param.unit, stream.sorted, stream.scaled, combined(`site ${site}`));
@@ -459,11 +462,11 @@ export function analyzeParamGroup(
   };
 }
 
-function analyzeOneLot(frames: WaferFrame[], settings: AnalysisSettings, history: AnalysisHistory | undefined, progress: (fraction: number) => void) {
+function analyzeOneLot(frames: WaferFrame[], settings: AnalysisSettings, history: AnalysisHistory | undefined, scratch: Buffers | undefined, progress: (fraction: number) => void) {
   const hoods = new NeighbourhoodCache();
   const names = analysisOrder(frames).map((p) => p.name);
   // The last of names.length + 1 steps is the joining work.
-  const group = analyzeParamGroup(frames, names, { settings, history, hoods, onProgress: (f) => progress(f * names.length / (names.length + 1)) });
+  const group = analyzeParamGroup(frames, names, { settings, history, hoods, scratch, onProgress: (f) => progress(f * names.length / (names.length + 1)) });
   const result = completeOneLot(frames, [group], settings, history, hoods);
   progress(1);
   return result;

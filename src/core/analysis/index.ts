@@ -4,6 +4,7 @@ export {
   analyzeLot, analyzeLotFromGroups, analyzeParamGroup, analysisOrder, concatFrames, methodDescription, planParamGroups,
   type AnalysisHistory, type AnalyzeOptions, type ParamGroupResult,
 } from './analyzeLot';
+export { Buffers as AnalysisScratch } from './buffers';
 export { groupStats, indicesBySite } from './groupStats';
 export { paramSummary } from './paramSummary';
 export { tradeoffCorrelations } from './correlation';

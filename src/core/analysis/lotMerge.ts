@@ -21,7 +21,7 @@ export function mergeSorted(parts: SortedColumn[], buffers?: Buffers): MergedStr
   const total = parts.reduce((n, p) => n + p.sorted.length, 0);
   const sorted = buffers ? buffers.f64('merge.sorted', total) : new Float64Array(total);
   const site = buffers ? new Int32Array(buffers.u32('merge.site', total).buffer, 0, total) : new Int32Array(total);
-  const wafer = new Uint16Array(total);
+  const wafer = buffers ? new Uint16Array(buffers.u32('merge.wafer', (total + 1) >> 1).buffer, 0, total) : new Uint16Array(total);
   const die = buffers ? buffers.u32('merge.die', total) : new Uint32Array(total);
   const position = buffers ? buffers.u32('merge.position', total) : new Uint32Array(total);
   const at = new Int32Array(parts.length);

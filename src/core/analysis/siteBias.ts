@@ -14,10 +14,10 @@ import { sortColumn } from './sortedColumn';
 import type { AnalysisSettings, SiteBias } from './types';
 
 /** Sites present in a stream's labels (>= 0), ascending, and each entry's slot in that list. */
-export function siteSlots(site: Int32Array): { sites: number[]; slot: Int32Array } {
+export function siteSlots(site: Int32Array, into?: Int32Array): { sites: number[]; slot: Int32Array } {
   let max = -1;
   for (let k = 0; k < site.length; k++) if (site[k] > max) max = site[k];
-  const slot = new Int32Array(site.length);
+  const slot = into && into.length >= site.length ? into.subarray(0, site.length) : new Int32Array(site.length);
   if (max < 0) return { sites: [], slot: slot.fill(-1) };
   if (max > 1 << 20) {
     // Unusual site numbers: a Map instead of a dense table.

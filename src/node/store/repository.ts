@@ -103,7 +103,9 @@ export class NotFoundError extends Error {
   override name = 'NotFoundError';
 }
 
-export function loadWafer(db: Db, lot: string, wafer: string): WaferFrame {
+/** `shared`: columns in SharedArrayBuffers, for handing to worker threads without a copy. */
+export function loadWafer(db: Db, lot: string, wafer: string, options: { shared?: boolean } = {}): WaferFrame {
+  const shared = options.shared === true;
   const row = db.prepare('SELECT w.id, w.x, w.y, w.site FROM wafers w JOIN lots l ON l.id = w.lot_id WHERE l.name = ? AND w.name = ?').get(lot, wafer) as
     | { id: number; x: Buffer; y: Buffer; site: Buffer }
     | undefined;
@@ -112,14 +114,14 @@ export function loadWafer(db: Db, lot: string, wafer: string): WaferFrame {
     { param: string; unit: string; data: Buffer }[];
   const params: ParamInfo[] = valueRows.map((v) => ({ name: v.param, unit: v.unit }));
   const values: Record<string, Float64Array> = {};
-  for (const v of valueRows) values[v.param] = float64Of(v.data);
-  return { lot, wafer, x: int32Of(row.x), y: int32Of(row.y), site: int32Of(row.site), params, values };
+  for (const v of valueRows) values[v.param] = float64Of(v.data, shared);
+  return { lot, wafer, x: int32Of(row.x, shared), y: int32Of(row.y, shared), site: int32Of(row.site, shared), params, values };
 }
 
-export function loadLot(db: Db, lot: string): WaferFrame[] {
+export function loadLot(db: Db, lot: string, options: { shared?: boolean } = {}): WaferFrame[] {
   const names = listWaferNames(db, lot);
   if (names.length === 0) throw new NotFoundError(`No lot ${lot} in this database.`);
-  return names.map((name) => loadWafer(db, lot, name));
+  return names.map((name) => loadWafer(db, lot, name, options));
 }
 
 export function getSetting(db: Db, key: string): string | undefined {

@@ -5,7 +5,7 @@
 // values are checked against outside sources in the other analysis and reference tests.
 import { describe, expect, it } from 'vitest';
 import {
-  analyzeLot, analyzeLotFromGroups, analyzeParamGroup, analysisOrder, planParamGroups, type ParamGroupResult,
+  AnalysisScratch, analyzeLot, analyzeLotFromGroups, analyzeParamGroup, analysisOrder, planParamGroups, type ParamGroupResult,
 } from '../../../src/core/analysis';
 import type { WaferFrame } from '../../../src/core/frame';
 import { generateLot } from '../../../src/core/generator';
@@ -70,5 +70,19 @@ describe('splitting the analysis by parameter', () => {
   it('refuses to join groups that leave a parameter out', () => {
     const groups = groupsOf(lot.wafers, 2);
     expect(() => analyzeLotFromGroups(lot.wafers, groups.slice(1))).toThrow(/missing parameters? Ioff_n/);
+  });
+
+  it('gives the same analysis with scratch memory kept from an earlier, larger or smaller lot', () => {
+    // Memory kept between analyses must never leak values from one lot into the next.
+    const other = generateLot({
+      seed: 31337, lot: 'KEPT.9', waferCount: 6,
+      layout: { waferDiameterMm: 300, edgeExclusionMm: 3, dieWidthMm: 4, dieHeightMm: 4, sitesX: 3, sitesY: 2, shotX: 5, shotY: 4 },
+      excursions: [{ wafer: 3, mechanism: 'threshold-shift', device: 'both', magnitude: -0.07, spread: 0.1, shape: { kind: 'center', radiusFraction: 0.3 } }],
+    }).wafers;
+    const fresh = [JSON.stringify(analyzeLot(lot.wafers)), JSON.stringify(analyzeLot(other))];
+    const scratch = new AnalysisScratch();
+    for (const [frames, expected] of [[lot.wafers, fresh[0]], [other, fresh[1]], [lot.wafers, fresh[0]], [only(other, ['Ioff_n', 'Ion_n']), JSON.stringify(analyzeLot(only(other, ['Ioff_n', 'Ion_n'])))]] as const) {
+      expect(JSON.stringify(analyzeLot(frames, { scratch }))).toBe(expected);
+    }
   });
 });
