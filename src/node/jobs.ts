@@ -1,16 +1,17 @@
-// Long work (import, analysis) runs in a worker thread so the server's event loop and the
-// Electron main process stay responsive. The worker reports progress and can be cancelled.
+// Long work runs in a worker thread so the server's event loop and the Electron main process
+// stay responsive: an import as a one-off job here, an analysis on the kept analysis thread
+// (analysisWorker.ts). The worker reports progress and can be cancelled.
 
 import { Worker } from 'node:worker_threads';
-import type { ColumnMapping, ImportResult, LotAnalysis } from '../shared/api';
+import type { ColumnMapping, ImportResult } from '../shared/api';
 
+/** A one-off job; analyses go to the app's analysis thread instead (analysisWorker.ts). */
 export type JobRequest =
-  | { task: 'import'; dbPath: string; path: string; fileName: string; nativeBinding?: string; mapping?: ColumnMapping; mappingName?: string }
-  | { task: 'analyze'; dbPath: string; lot: string; nativeBinding?: string };
+  { task: 'import'; dbPath: string; path: string; fileName: string; nativeBinding?: string; mapping?: ColumnMapping; mappingName?: string };
 
 export type JobMessage =
   | { type: 'progress'; done: number; total: number; rows?: number }
-  | { type: 'result'; result: ImportResult | LotAnalysis }
+  | { type: 'result'; result: ImportResult }
   | { type: 'error'; name: string; message: string };
 
 export interface RunningJob<T> {

@@ -107,14 +107,15 @@ export class HelperPool {
     });
   }
 
-  /** Compiles the analysis code in this thread and in `threads - 1` helpers on a small invented
-   * lot, so the first real analysis runs at full speed. */
+  /** Starts `threads - 1` helpers and compiles the analysis code in them and in this thread on
+   * a small invented lot (about a tenth of a second), so the first real analysis does not pay for
+   * starting threads and compiling. */
   async warm(threads = analysisThreads()): Promise<void> {
     const lot = generateLot({
       seed: 1, lot: 'WARM-UP', waferCount: 3,
       layout: { waferDiameterMm: 200, edgeExclusionMm: 3, dieWidthMm: 2.2, dieHeightMm: 2.2, sitesX: 2, sitesY: 2, shotX: 4, shotY: 4 },
     }).wafers;
-    for (let round = 0; round < 3; round++) await analyzeLotInParallel(lot, { pool: this, threads });
+    await analyzeLotInParallel(lot, { pool: this, threads });
   }
 
   close(): void {

@@ -37,7 +37,7 @@ export interface ServiceOptions {
 export class OffstateService implements OffstateApi {
   private db: Db;
   private readonly listeners = new Set<(event: ProgressEvent) => void>();
-  private readonly jobs = new Map<string, { cancel(): void }>();
+  private readonly jobs = new Map<string, { kind: ProgressEvent['kind']; cancel(): void }>();
   private readonly analysisCache = new Map<string, { version: number; result: Promise<LotAnalysis> }>();
   /** Bumped by every import, so cached analyses of changed lots are recomputed. */
   private dataVersion = 0;
@@ -61,11 +61,13 @@ export class OffstateService implements OffstateApi {
   }
 
   async openDatabase(path: string): Promise<AppInfo> {
-    if (this.jobs.size > 0) throw new StoreError('An import or analysis is still running; open the other database when it has finished.');
+    if ([...this.jobs.values()].some((j) => j.kind === 'import')) throw new StoreError('An import is still running; open the other database when it has finished.');
     const target = resolve(path);
     mkdirSync(dirname(target), { recursive: true });
     // Opened (and checked) before the current one is closed: a refusal leaves everything as it was.
     const next = openDatabase(target, { nativeBinding: this.options.nativeBinding });
+    // Analyses of the database being left are of no more use: they are cancelled (they store nothing).
+    for (const job of this.jobs.values()) if (job.kind === 'analysis') job.cancel();
     this.db.close();
     this.db = next;
     this.options.dbPath = target;
@@ -123,7 +125,7 @@ export class OffstateService implements OffstateApi {
       const rate = seconds > 0 ? done / seconds : 0;
       this.emit({ ...base, phase: 'progress', done, total, ...(rows !== undefined ? { rows } : {}), rate, ...(rate > 0 ? { secondsLeft: Math.max(0, (total - done) / rate) } : {}) });
     });
-    this.jobs.set(jobId, job);
+    this.jobs.set(jobId, { kind, cancel: () => job.cancel() });
     return job.promise.then(
       (result) => { this.jobs.delete(jobId); this.emit({ ...base, phase: 'done', done: 1, total: 1 }); return result; },
       (error: Error) => {

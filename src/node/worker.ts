@@ -1,6 +1,6 @@
 // Worker-thread entry. One script, started in three ways (its workerData says which):
-// - a one-off job (JobRequest: an import, or an analysis) that opens its own connection to the
-//   database, posts progress and the result, and ends;
+// - a one-off job (JobRequest: an import) that opens its own connection to the database, posts
+//   progress and the result, and ends;
 // - the analysis service (ANALYSIS_SERVICE_TASK): kept by the app between analyses so its code
 //   stays compiled, it takes AnalysisRequests one at a time (analysisWorker.ts);
 // - an analysis helper (HELPER_TASK): analyses parameter groups for one of those
@@ -10,7 +10,6 @@ import { parentPort, workerData } from 'node:worker_threads';
 import type { JobMessage, JobRequest } from './jobs';
 import { openDatabase } from './store/database';
 import { importAnyFile } from './importAny';
-import { analyzeStoredLotInParallel } from './analysisStore';
 import { HELPER_TASK, HelperPool, serveGroupRequests } from './parallelAnalysis';
 import { ANALYSIS_SERVICE_TASK, serveAnalysisRequests } from './analysisWorker';
 
@@ -23,23 +22,16 @@ async function runJob(job: JobRequest): Promise<void> {
   port.on('message', (m: { type: string }) => { if (m.type === 'cancel') controller.abort(); });
   const post = (m: JobMessage) => port.postMessage(m);
   const db = openDatabase(job.dbPath, { nativeBinding: job.nativeBinding });
-  const pool = job.task === 'analyze' ? new HelperPool(scriptUrl) : undefined;
   try {
-    if (job.task === 'import') {
-      const result = await importAnyFile(db, job.path, {
-        fileName: job.fileName,
-        signal: controller.signal,
-        mapping: job.mapping,
-        mappingName: job.mappingName,
-        onProgress: (p) => post({ type: 'progress', done: p.bytesDone, total: p.bytesTotal, rows: p.rows }),
-      });
-      post({ type: 'result', result });
-    } else {
-      const result = await analyzeStoredLotInParallel(db, job.lot, { pool, onProgress: (done, total) => post({ type: 'progress', done, total }) });
-      post({ type: 'result', result });
-    }
+    const result = await importAnyFile(db, job.path, {
+      fileName: job.fileName,
+      signal: controller.signal,
+      mapping: job.mapping,
+      mappingName: job.mappingName,
+      onProgress: (p) => post({ type: 'progress', done: p.bytesDone, total: p.bytesTotal, rows: p.rows }),
+    });
+    post({ type: 'result', result });
   } finally {
-    pool?.close();
     db.close();
   }
 }
