@@ -19,7 +19,10 @@ function isTypedArray(value: unknown): value is ArrayBufferView & { length: numb
 export function encodePayload(value: unknown): Uint8Array {
   const chunks: Uint8Array[] = [];
   let dataLength = 0;
-  const replace = (v: unknown): unknown => {
+  // JSON.stringify's replacer sees every value once, on the way out: no copy of the whole
+  // structure is built first (a lot's analysis is tens of MB of JSON).
+  const replace = (_key: string, v: unknown): unknown => {
+    if (typeof v === 'number') return Number.isFinite(v) ? v : { $num: String(v) };
     if (isTypedArray(v)) {
       const name = v.constructor.name as TypedArrayName;
       if (!(name in CONSTRUCTORS)) throw new Error(`encodePayload cannot send a ${name}`);
@@ -31,16 +34,9 @@ export function encodePayload(value: unknown): Uint8Array {
       dataLength += bytes.byteLength;
       return ref;
     }
-    if (typeof v === 'number' && !Number.isFinite(v)) return { $num: String(v) };
-    if (Array.isArray(v)) return v.map(replace);
-    if (v !== null && typeof v === 'object') {
-      const out: Record<string, unknown> = {};
-      for (const [k, inner] of Object.entries(v)) if (inner !== undefined) out[k] = replace(inner);
-      return out;
-    }
     return v;
   };
-  const json = new TextEncoder().encode(JSON.stringify(replace(value)));
+  const json = new TextEncoder().encode(JSON.stringify(value, replace));
   const headerLength = 8 + json.byteLength;
   const dataStart = headerLength + ((8 - (headerLength % 8)) % 8);
   const out = new Uint8Array(dataStart + dataLength);
@@ -61,7 +57,10 @@ export function decodePayload<T = unknown>(bytes: Uint8Array): T {
   if (8 + jsonLength > bytes.byteLength) throw new Error('decodePayload: payload is truncated');
   const headerLength = 8 + jsonLength;
   const dataStart = headerLength + ((8 - (headerLength % 8)) % 8);
-  const parsed = JSON.parse(new TextDecoder().decode(bytes.subarray(8, headerLength)));
+  const text = new TextDecoder().decode(bytes.subarray(8, headerLength));
+  const parsed = JSON.parse(text);
+  // Nothing to revive (no array, no NaN or infinity): the parse is the result.
+  if (!text.includes('"$typed"') && !text.includes('"$num"')) return parsed as T;
   const revive = (v: unknown): unknown => {
     if (Array.isArray(v)) return v.map(revive);
     if (v !== null && typeof v === 'object') {

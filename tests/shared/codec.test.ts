@@ -16,6 +16,15 @@ describe('payload codec', () => {
     expect(Array.from(back.odd)).toEqual([7]);
     expect(back.neg).toBe(-Infinity);
   });
+  it('round-trips plain data exactly, also text that looks like the envelope\'s own markers', () => {
+    // Plain data takes the decoder's short path (no array, no NaN); key order and -0 survive JSON
+    // as RFC 8259 and ECMA-262 JSON.stringify define them (-0 is written as 0).
+    const value = { lot: '$num', note: '"$typed"', rows: [{ b: 2, a: 1 }, { z: [0.1, 1e-300, 12345678901234567] }], flag: false };
+    expect(decodePayload(encodePayload(value))).toEqual(value);
+    expect(JSON.stringify(decodePayload(encodePayload(value)))).toBe(JSON.stringify(value));
+    const mixed = { name: '$num', values: [NaN, 1] };
+    expect(decodePayload<typeof mixed>(encodePayload(mixed)).values).toEqual([NaN, 1]);
+  });
   it('refuses bytes that are not a payload or are cut short', () => {
     expect(() => decodePayload(new Uint8Array([1, 2, 3, 4, 5, 6, 7, 8]))).toThrow(/bad magic/);
     const whole = encodePayload({ a: new Float64Array(10) });
