@@ -17,8 +17,8 @@ describe('payload codec', () => {
     expect(back.neg).toBe(-Infinity);
   });
   it('round-trips plain data exactly, also text that looks like the envelope\'s own markers', () => {
-    // Plain data takes the decoder's short path (no array, no NaN); key order and -0 survive JSON
-    // as RFC 8259 and ECMA-262 JSON.stringify define them (-0 is written as 0).
+    // Plain data takes the decoder's short path (no array, no NaN); key order and every double
+    // survive, as ECMA-262 defines JSON.stringify (shortest round-trip number text).
     const value = { lot: '$num', note: '"$typed"', rows: [{ b: 2, a: 1 }, { z: [0.1, 1e-300, 12345678901234567] }], flag: false };
     expect(decodePayload(encodePayload(value))).toEqual(value);
     expect(JSON.stringify(decodePayload(encodePayload(value)))).toBe(JSON.stringify(value));
