@@ -111,6 +111,19 @@ describe.skipIf(!existsSync(WORKER))('the analysis on several threads', () => {
     }
   });
 
+  it('cancels an analysis of the database the user leaves, and opens the other at once', async () => {
+    const service = new OffstateService({ dbPath, mode: 'browser', workerUrl: pathToFileURL(WORKER) });
+    try {
+      const running = service.analyzeLot('KX2417.1');
+      const other = join(dir, 'other.sqlite');
+      const info = await service.openDatabase(other);
+      expect(info.database).toBe(other);
+      await expect(running).rejects.toMatchObject({ name: 'CancelledError' });
+    } finally {
+      service.close();
+    }
+  });
+
   it('prints the same analyze --json from the CLI on one thread and on two', () => {
     const run = (threads: string) => execFileSync(process.execPath, [CLI, 'analyze', '--json', dbPath], {
       env: { ...process.env, OFFSTATE_ANALYSIS_THREADS: threads }, maxBuffer: 256 * 2 ** 20,
