@@ -131,14 +131,19 @@ function assemble(
   };
 }
 
-interface WaferWork {
-  frame: WaferFrame;
+/** One wafer's results of a parameter group. */
+interface WaferPart {
   params: Record<string, ParamSummary>;
   sites: Record<string, Record<string, ParamSummary>>;
   siteBias: SiteBias[];
   correlation: Correlation[];
   correlationBySite: Record<string, Correlation[]>;
+  /** Per flagged die (index in the frame): the PAT and NNR reasons, in analysis order. */
   reasons: Map<number, Reason[]>;
+}
+
+interface WaferWork extends WaferPart {
+  frame: WaferFrame;
   hood?: Neighbourhood;
   dies?: Map<number, Uint32Array>;
   /** The wafer's sites ascending and each die's index among them (-1 for an unknown site). */
@@ -262,25 +267,19 @@ export interface ParamGroupResult {
   lot: string;
   /** The group's parameters in analysis order. */
   names: string[];
-  wafers: {
-    params: Record<string, ParamSummary>;
-    sites: Record<string, Record<string, ParamSummary>>;
-    siteBias: SiteBias[];
-    correlation: Correlation[];
-    correlationBySite: Record<string, Correlation[]>;
-    /** Per flagged die (index in the frame): the PAT and NNR reasons, in analysis order. */
-    reasons: Map<number, Reason[]>;
-  }[];
-  lotStats: {
-    params: Record<string, ParamSummary>;
-    sites: Record<string, Record<string, ParamSummary>>;
-    siteBias: SiteBias[];
-    correlation: Correlation[];
-    correlationBySite: Record<string, Correlation[]>;
-    patLimits: Record<string, PatLimits>;
-  };
+  wafers: WaferPart[];
+  lotStats: Omit<WaferPart, 'reasons'> & { patLimits: Record<string, PatLimits> };
   /** Per parameter, each wafer's robust centre and sigma on the analysis scale. */
   centres: Map<string, (WaferCentre | undefined)[]>;
+}
+
+/** A group's per-wafer and per-lot results, empty, to be filled. */
+function emptyResults(frames: WaferFrame[]): { work: WaferWork[]; lotStats: ParamGroupResult['lotStats']; centres: ParamGroupResult['centres'] } {
+  return {
+    work: frames.map((frame) => ({ frame, params: {}, sites: {}, siteBias: [], correlation: [], correlationBySite: {}, reasons: new Map() })),
+    lotStats: { params: {}, sites: {}, siteBias: [], correlation: [], correlationBySite: {}, patLimits: {} },
+    centres: new Map(),
+  };
 }
 
 /**
@@ -300,16 +299,8 @@ export function analyzeParamGroup(
   const pairOf = new Map<string, (typeof pairs)[number]>();
   for (const pair of pairs) { pairOf.set(pair.ioff, pair); pairOf.set(pair.ion, pair); }
 
-  const work: WaferWork[] = frames.map((frame) => ({
-    frame, params: {}, sites: {}, siteBias: [], correlation: [], correlationBySite: {}, reasons: new Map(),
-  }));
-  const lotParams: Record<string, ParamSummary> = {};
-  const lotSites: Record<string, Record<string, ParamSummary>> = {};
-  const lotSiteBias: SiteBias[] = [];
-  const lotCorrelation: Correlation[] = [];
-  const lotCorrelationBySite: Record<string, Correlation[]> = {};
-  const patLimits: Record<string, PatLimits> = {};
-  const centres = new Map<string, (WaferCentre | undefined)[]>();
+  const { work, lotStats, centres } = emptyResults(frames);
+  const { params: lotParams, sites: lotSites, siteBias: lotSiteBias, correlation: lotCorrelation, correlationBySite: lotCorrelationBySite, patLimits } = lotStats;
   const kept = new Map<string, PairRanks>();
   const limit = settings.patLimit;
   const buffers = options.scratch ?? new Buffers();
@@ -457,7 +448,7 @@ export function analyzeParamGroup(
       params: wk.params, sites: wk.sites, siteBias: wk.siteBias, correlation: wk.correlation,
       correlationBySite: wk.correlationBySite, reasons: wk.reasons,
     })),
-    lotStats: { params: lotParams, sites: lotSites, siteBias: lotSiteBias, correlation: lotCorrelation, correlationBySite: lotCorrelationBySite, patLimits },
+    lotStats,
     centres,
   };
 }
@@ -491,16 +482,8 @@ function completeOneLot(frames: WaferFrame[], groups: ParamGroupResult[], settin
   const hoodOf = (f: WaferFrame): Neighbourhood => hoods.of(f, settings.nnrRadius);
 
   // Join the groups in analysis order, so every list reads as if one pass had made it.
-  const work: WaferWork[] = frames.map((frame) => ({
-    frame, params: {}, sites: {}, siteBias: [], correlation: [], correlationBySite: {}, reasons: new Map(),
-  }));
-  const lotParams: Record<string, ParamSummary> = {};
-  const lotSites: Record<string, Record<string, ParamSummary>> = {};
-  const lotSiteBias: SiteBias[] = [];
-  const lotCorrelation: Correlation[] = [];
-  const lotCorrelationBySite: Record<string, Correlation[]> = {};
-  const patLimits: Record<string, PatLimits> = {};
-  const centres = new Map<string, (WaferCentre | undefined)[]>();
+  const { work, lotStats: joined, centres } = emptyResults(frames);
+  const { params: lotParams, sites: lotSites, siteBias: lotSiteBias, correlation: lotCorrelation, correlationBySite: lotCorrelationBySite, patLimits } = joined;
   const joinSites = (into: Record<string, Record<string, ParamSummary>>, from: Record<string, Record<string, ParamSummary>>) => {
     for (const [site, params] of Object.entries(from)) Object.assign(into[site] ??= {}, params);
   };
