@@ -147,27 +147,48 @@ interface WaferWork extends WaferPart {
   hood?: Neighbourhood;
   dies?: Map<number, Uint32Array>;
   /** The wafer's sites ascending and each die's index among them (-1 for an unknown site). */
-  siteTable?: { sites: number[]; slotOfDie: Int32Array };
+  siteTable?: { sites: number[]; slotOfDie: Int32Array; slotOfSite?: Int32Array };
 }
 
 /** Slots of a sorted column's entries, from the wafer's site table (built once per wafer). */
 function slotsOf(wk: WaferWork, col: SortedColumn, buffers: Buffers): { sites: number[]; slot: Int32Array } {
   if (!wk.siteTable) {
     const { sites, slot } = siteSlots(wk.frame.site);
-    wk.siteTable = { sites, slotOfDie: slot };
+    const max = sites.length ? sites[sites.length - 1] : -1;
+    // Ordinary site numbers: a dense site -> slot table, read along the column's own site labels.
+    const slotOfSite = max <= 1 << 16 ? new Int32Array(max + 1).fill(-1) : undefined;
+    if (slotOfSite) sites.forEach((site, i) => { slotOfSite[site] = i; });
+    wk.siteTable = { sites, slotOfDie: slot, slotOfSite };
   }
-  const { sites, slotOfDie } = wk.siteTable;
+  const { sites, slotOfDie, slotOfSite } = wk.siteTable;
   const slot = new Int32Array(buffers.u32('slots', col.order.length).buffer, 0, col.order.length);
-  for (let k = 0; k < slot.length; k++) slot[k] = slotOfDie[col.order[k]];
   // Sites whose dies all lack this parameter drop out, as they would from the column's own labels.
   const present = new Uint8Array(sites.length);
-  for (let k = 0; k < slot.length; k++) if (slot[k] >= 0) present[slot[k]] = 1;
+  if (slotOfSite) fillSlotsBySite(col.site, slotOfSite, slot, present);
+  else fillSlotsByDie(col.order, slotOfDie, slot, present);
   if (present.every((p) => p === 1)) return { sites, slot };
   const renumber = new Int32Array(sites.length).fill(-1);
   const kept: number[] = [];
   sites.forEach((site, i) => { if (present[i]) { renumber[i] = kept.length; kept.push(site); } });
   for (let k = 0; k < slot.length; k++) if (slot[k] >= 0) slot[k] = renumber[slot[k]];
   return { sites: kept, slot };
+}
+
+function fillSlotsBySite(site: Int32Array, slotOfSite: Int32Array, slot: Int32Array, present: Uint8Array): void {
+  for (let k = 0; k < slot.length; k++) {
+    const s = site[k];
+    const t = s >= 0 && s < slotOfSite.length ? slotOfSite[s] : -1;
+    slot[k] = t;
+    if (t >= 0) present[t] = 1;
+  }
+}
+
+function fillSlotsByDie(order: Uint32Array, slotOfDie: Int32Array, slot: Int32Array, present: Uint8Array): void {
+  for (let k = 0; k < slot.length; k++) {
+    const t = slotOfDie[order[k]];
+    slot[k] = t;
+    if (t >= 0) present[t] = 1;
+  }
 }
 
 /** Ranks and the log10|Ioff| column kept for an Ion-Ioff pair until both members are done. */
@@ -388,14 +409,17 @@ export function analyzeParamGroup(
       const scaledLot = lotScaled ?? merged.sorted;
       const summary = streamSummary(param.unit, merged.sorted, lotScaled, combined('lot'));
       if (summary) lotParams[param.name] = summary;
+      // Scratch for the lot's mid-ranks in each wafer's stream order (streams.ts).
+      const orders = present.map((e) => e.c.order);
+      const byPosition = ranks ? present.map((e, i) => buffers.f32(`lot ranks by position ${i}`, e.c.order.length)) : [];
       const lotSlots = siteSlots(merged.site, new Int32Array(buffers.u32('lot.slots', merged.site.length).buffer, 0, merged.site.length));
       const lotBySite = splitBySite(merged.sorted, lotSlots, zeros, lotScaled, buffers, 'lot');
       for (const [site, stream] of lotBySite) {
         const s = streamSummary(param.unit, stream.sorted, stream.scaled, combined(`site ${site}`));
         if (s) (lotSites[String(site)] ??= {})[param.name] = s;
-        if (ranks) scatterLotMidranks(stream.sorted, merged.wafer, merged.die, present.map((e) => ranks.lotSite[e.w]), stream.position);
+        if (ranks) scatterLotMidranks(stream.sorted, merged, orders, present.map((e) => ranks.lotSite[e.w]), byPosition, stream.position);
       }
-      if (ranks) scatterLotMidranks(merged.sorted, merged.wafer, merged.die, present.map((e) => ranks.lot[e.w]));
+      if (ranks) scatterLotMidranks(merged.sorted, merged, orders, present.map((e) => ranks.lot[e.w]), byPosition);
       lotSiteBias.push(...siteBiasOfStream(param.name, merged.sorted, merged.site, settings, lotSlots, lotSlots.sites.map((site) => lotBySite.get(site)?.sorted ?? new Float64Array(0))));
       const scale = current ? 'log10' : 'linear';
       const lotLimits = dynamicPatLimits(scaledLot, scale, limit, spec);

@@ -8,9 +8,8 @@ export interface MergedStream {
   /** Ascending finite magnitudes of the whole lot. */
   sorted: Float64Array;
   site: Int32Array;
-  /** Wafer position (in the list given) and die index of each entry. */
+  /** Wafer of each entry (its index in the list given). */
   wafer: Uint16Array;
-  die: Uint32Array;
   /** Position of each entry in its wafer's stream. */
   position: Uint32Array;
 }
@@ -22,7 +21,6 @@ export function mergeSorted(parts: SortedColumn[], buffers?: Buffers): MergedStr
   const sorted = buffers ? buffers.f64('merge.sorted', total) : new Float64Array(total);
   const site = buffers ? new Int32Array(buffers.u32('merge.site', total).buffer, 0, total) : new Int32Array(total);
   const wafer = buffers ? new Uint16Array(buffers.u32('merge.wafer', (total + 1) >> 1).buffer, 0, total) : new Uint16Array(total);
-  const die = buffers ? buffers.u32('merge.die', total) : new Uint32Array(total);
   const position = buffers ? buffers.u32('merge.position', total) : new Uint32Array(total);
   const at = new Int32Array(parts.length);
   const heapValue = new Float64Array(parts.length);
@@ -56,7 +54,6 @@ export function mergeSorted(parts: SortedColumn[], buffers?: Buffers): MergedStr
     sorted[k] = part.sorted[j];
     site[k] = part.site[j];
     wafer[k] = p;
-    die[k] = part.order[j];
     position[k] = j;
     if (j + 1 < part.sorted.length) {
       heapValue[0] = part.sorted[j + 1];
@@ -67,5 +64,5 @@ export function mergeSorted(parts: SortedColumn[], buffers?: Buffers): MergedStr
     }
     if (size > 0) siftDown(0);
   }
-  return { sorted, site, wafer, die, position };
+  return { sorted, site, wafer, position };
 }

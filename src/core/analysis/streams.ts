@@ -89,10 +89,23 @@ export function scatterMidranks(sorted: Float64Array, index: Uint32Array, target
   }
 }
 
-/** Mid-ranks of a lot stream into per-wafer targets: targets[part[wafer[k]]][die[k]]. */
+/**
+ * Mid-ranks of a lot stream (or of a part of it: `position` gives each entry's index in the
+ * merged stream) into per-wafer targets indexed by die. In two passes that each touch memory in
+ * order: first into each wafer's stream order (`byPosition`, one scratch array per wafer, every
+ * wafer's positions rising), then per wafer through its `order` (die of each stream position)
+ * into the target; writing straight to the dies would jump between all the wafers' arrays.
+ */
 export function scatterLotMidranks(
-  sorted: Float64Array, wafer: Uint16Array, die: Uint32Array, targets: Float32Array[], position?: Uint32Array,
+  sorted: Float64Array, merged: { wafer: Uint16Array; position: Uint32Array }, orders: Uint32Array[], targets: Float32Array[],
+  byPosition: Float32Array[], position?: Uint32Array,
 ): void {
+  for (const b of byPosition) b.fill(NaN);
+  writeByPosition(sorted, merged.wafer, merged.position, byPosition, position);
+  for (let w = 0; w < targets.length; w++) scatterByOrder(byPosition[w], orders[w], targets[w]);
+}
+
+function writeByPosition(sorted: Float64Array, wafer: Uint16Array, waferPosition: Uint32Array, byPosition: Float32Array[], position?: Uint32Array): void {
   const n = sorted.length;
   let k = 0;
   while (k < n) {
@@ -102,8 +115,16 @@ export function scatterLotMidranks(
     const rank = (k + 1 + end) / 2;
     for (let j = k; j < end; j++) {
       const at = position ? position[j] : j;
-      targets[wafer[at]][die[at]] = rank;
+      byPosition[wafer[at]][waferPosition[at]] = rank;
     }
     k = end;
+  }
+}
+
+/** target[order[j]] = values[j] where values[j] is a number (NaN entries are left alone). */
+function scatterByOrder(values: Float32Array, order: Uint32Array, target: Float32Array): void {
+  for (let j = 0; j < values.length; j++) {
+    const v = values[j];
+    if (v === v) target[order[j]] = v;
   }
 }

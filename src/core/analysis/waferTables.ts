@@ -1,5 +1,7 @@
 // Small per-wafer tables the analysis builds once and reuses.
 
+import { siteSlots } from './siteBias';
+
 /** True when two wafers have the same die grid (so their neighbourhoods are the same). */
 export function sameGrid(x1: Int32Array, y1: Int32Array, x2: Int32Array, y2: Int32Array): boolean {
   if (x1 === x2 && y1 === y2) return true;
@@ -15,17 +17,15 @@ export function sortKeys<T>(record: Record<string, T>): Record<string, T> {
 
 /** Die indices per probe site, sites ascending (unknown sites, < 0, left out). */
 export function diesBySite(site: Int32Array): Map<number, Uint32Array> {
-  const counts = new Map<number, number>();
-  for (let i = 0; i < site.length; i++) if (site[i] >= 0) counts.set(site[i], (counts.get(site[i]) ?? 0) + 1);
-  const out = new Map<number, Uint32Array>();
-  const at = new Map<number, number>();
-  for (const [s, n] of [...counts].sort((a, b) => a[0] - b[0])) { out.set(s, new Uint32Array(n)); at.set(s, 0); }
-  for (let i = 0; i < site.length; i++) {
-    const s = site[i];
-    if (s < 0) continue;
-    const k = at.get(s)!;
-    out.get(s)![k] = i;
-    at.set(s, k + 1);
+  // Site slots (siteSlots: a dense table for ordinary site numbers), then a counting sort.
+  const { sites, slot } = siteSlots(site);
+  const counts = new Int32Array(sites.length);
+  for (let i = 0; i < slot.length; i++) if (slot[i] >= 0) counts[slot[i]]++;
+  const lists = Array.from(counts, (n) => new Uint32Array(n));
+  const at = new Int32Array(sites.length);
+  for (let i = 0; i < slot.length; i++) {
+    const s = slot[i];
+    if (s >= 0) lists[s][at[s]++] = i;
   }
-  return out;
+  return new Map(sites.map((s, k) => [s, lists[k]]));
 }
