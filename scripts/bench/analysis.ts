@@ -108,13 +108,14 @@ export async function benchAnalysis(csvPath: string, dbPath: string): Promise<vo
       db4.close();
     }
     // As the app runs it: the analysis thread started and warmed at start (as OffstateService
-    // does with warmAnalysis), then the lot analysed and its result posted back to this thread.
+    // does with warmAnalysis), then the lot analysed and its result posted back to this thread,
+    // encoded as the browser mode sends it.
     const thread = new AnalysisWorker(workerUrl);
     try {
       const warmS = await timeAsync(async () => { thread.warm(); await thread.analyze(join(dbPath, '..', 'demo lot.sqlite'), listDemoLot(), () => {}).promise; });
       const first = await timeAsync(() => thread.analyze(fourDb, lot, () => {}).promise);
       const best = await timeBestAsync(() => thread.analyze(fourDb, lot, () => {}).promise, 3);
-      console.log(`  four currents through the app's analysis thread (${analysisThreads()} threads, result posted back to this thread): first ${first.toFixed(2)} s, then best of 3 ${best.toFixed(2)} s (start, warm-up and the demo lot before: ${warmS.toFixed(2)} s)`);
+      console.log(`  four currents through the app's analysis thread (${analysisThreads()} threads, result posted back encoded, as the browser mode sends it): first ${first.toFixed(2)} s, then best of 3 ${best.toFixed(2)} s (start, warm-up and the demo lot before: ${warmS.toFixed(2)} s)`);
     } finally {
       thread.close();
     }

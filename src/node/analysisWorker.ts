@@ -1,11 +1,14 @@
 // The app's analysis thread, kept between analyses: started once (and warmed on a small invented
 // lot when asked), it analyses stored lots one at a time with its own helper threads
 // (parallelAnalysis.ts), so neither the app's thread nor a fresh thread's compile time is in
-// the way. Cancelling the running analysis stops the thread (a synchronous step cannot be
+// the way. The result comes back encoded as the browser mode sends it (EncodedAnalysis), so the
+// app's thread neither decodes nor encodes 30 MB of objects per full-size lot unless it needs
+// them (exports, the desktop IPC). Cancelling the running analysis stops the thread (a synchronous step cannot be
 // interrupted); the next analysis starts a new one.
 
 import { Worker } from 'node:worker_threads';
 import type { LotAnalysis } from '../shared/api';
+import { decodePayload, encodePayload } from '../shared/codec';
 import { analyzeStoredLotInParallel } from './analysisStore';
 import { JobError, type RunningJob } from './jobs';
 import { KeptScratch, type HelperPool } from './parallelAnalysis';
@@ -22,12 +25,40 @@ export type AnalysisRequest =
 export type AnalysisReply =
   | { id: number; type: 'started' }
   | { id: number; type: 'progress'; done: number; total: number }
-  | { id: number; type: 'result'; result: LotAnalysis }
+  /** The result as the browser mode sends it: encodePayload({ ok: true, result }), transferred. */
+  | { id: number; type: 'result'; envelope: Uint8Array }
   | { id: number; type: 'error'; name: string; message: string };
+
+/** An analysis as its encoded envelope (codec.ts) or as objects, each form made from the other
+ * only when someone asks for it. */
+export class EncodedAnalysis {
+  private bytes?: Uint8Array;
+  private decoded?: LotAnalysis;
+
+  static fromEnvelope(envelope: Uint8Array): EncodedAnalysis {
+    const a = new EncodedAnalysis();
+    a.bytes = envelope;
+    return a;
+  }
+
+  static of(result: LotAnalysis): EncodedAnalysis {
+    const a = new EncodedAnalysis();
+    a.decoded = result;
+    return a;
+  }
+
+  get envelope(): Uint8Array {
+    return (this.bytes ??= encodePayload({ ok: true, result: this.decoded }));
+  }
+
+  value(): LotAnalysis {
+    return (this.decoded ??= decodePayload<{ ok: true; result: LotAnalysis }>(this.bytes!).result);
+  }
+}
 
 interface Pending {
   request: Extract<AnalysisRequest, { type: 'analyze' }>;
-  resolve: (result: LotAnalysis) => void;
+  resolve: (result: EncodedAnalysis) => void;
   reject: (error: Error) => void;
   onProgress: (done: number, total: number) => void;
 }
@@ -51,7 +82,7 @@ export class AnalysisWorker {
       else if (m.type !== 'started') {
         this.pending.delete(m.id);
         if (this.pending.size === 0) worker.unref();
-        if (m.type === 'result') p.resolve(m.result);
+        if (m.type === 'result') p.resolve(EncodedAnalysis.fromEnvelope(m.envelope));
         else p.reject(new JobError(m.name, m.message));
       }
     });
@@ -73,10 +104,10 @@ export class AnalysisWorker {
     this.thread().postMessage({ type: 'warm' } satisfies AnalysisRequest);
   }
 
-  analyze(dbPath: string, lot: string, onProgress: (done: number, total: number) => void, nativeBinding?: string): RunningJob<LotAnalysis> {
+  analyze(dbPath: string, lot: string, onProgress: (done: number, total: number) => void, nativeBinding?: string): RunningJob<EncodedAnalysis> {
     const id = this.nextId++;
     const request = { type: 'analyze', id, dbPath, lot, nativeBinding } satisfies AnalysisRequest;
-    const promise = new Promise<LotAnalysis>((resolve, reject) => {
+    const promise = new Promise<EncodedAnalysis>((resolve, reject) => {
       this.pending.set(id, { request, resolve, reject, onProgress });
       this.send(request);
     });
@@ -118,7 +149,7 @@ export class AnalysisWorker {
 }
 
 /** The analysis thread's side: one request at a time, in the order they came. */
-export function serveAnalysisRequests(port: { on(event: 'message', listener: (m: AnalysisRequest) => void): void; postMessage(m: AnalysisReply): void }, pool: HelperPool): void {
+export function serveAnalysisRequests(port: { on(event: 'message', listener: (m: AnalysisRequest) => void): void; postMessage(m: AnalysisReply, transfer?: ArrayBuffer[]): void }, pool: HelperPool): void {
   const dropped = new Set<number>();
   const kept = new KeptScratch();
   let queue: Promise<void> = Promise.resolve();
@@ -133,7 +164,10 @@ export function serveAnalysisRequests(port: { on(event: 'message', listener: (m:
       const db = openDatabase(m.dbPath, { nativeBinding: m.nativeBinding });
       try {
         const result = await analyzeStoredLotInParallel(db, m.lot, { pool, scratch: kept.take(), onProgress: (done, total) => port.postMessage({ id: m.id, type: 'progress', done, total }) });
-        port.postMessage({ id: m.id, type: 'result', result });
+        // Encoded here, in this thread: the app's thread passes the bytes on to the browser
+        // without copying the structure twice (structured clone, then the encoder).
+        const envelope = encodePayload({ ok: true, result });
+        port.postMessage({ id: m.id, type: 'result', envelope }, [envelope.buffer as ArrayBuffer]);
       } catch (error) {
         port.postMessage({ id: m.id, type: 'error', name: (error as Error).name, message: (error as Error).message });
       } finally {

@@ -148,6 +148,11 @@ export async function startServer(options: ServerOptions): Promise<RunningServer
         return;
       }
       validateArgs(method, args);
+      if (method === 'analyzeLot') {
+        // Already encoded by the analysis thread: sent as it is.
+        send(res, 200, await service.analyzeLotEnvelope(args[0] as string), 'application/octet-stream');
+        return;
+      }
       const fn = (service as unknown as Record<string, (...a: unknown[]) => Promise<unknown>>)[method as keyof OffstateApi];
       const result = await fn.apply(service, args);
       sendEnvelope(res, 200, { ok: true, result });

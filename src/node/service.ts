@@ -16,7 +16,7 @@ import { importAnyFile, previewFile, previewHead } from './importAny';
 import { listMappings, resolveMapping, saveMapping } from './importMappings';
 import { analyzeStoredLot } from './analysisStore';
 import { runInWorker, type RunningJob } from './jobs';
-import { AnalysisWorker } from './analysisWorker';
+import { AnalysisWorker, EncodedAnalysis } from './analysisWorker';
 import { VERSION } from './version';
 import { loadLotColumn, readFaEdits, readStoredSettings, writeFaEdits, writeStoredSettings } from './viewStore';
 import type { FaEdit, StoredSettings, WaferColumn } from '../shared/api';
@@ -38,7 +38,7 @@ export class OffstateService implements OffstateApi {
   private db: Db;
   private readonly listeners = new Set<(event: ProgressEvent) => void>();
   private readonly jobs = new Map<string, { kind: ProgressEvent['kind']; cancel(): void }>();
-  private readonly analysisCache = new Map<string, { version: number; result: Promise<LotAnalysis> }>();
+  private readonly analysisCache = new Map<string, { version: number; result: Promise<EncodedAnalysis> }>();
   /** Bumped by every import, so cached analyses of changed lots are recomputed. */
   private dataVersion = 0;
   /** Imports run one at a time: each holds the write transaction while it streams. */
@@ -196,13 +196,22 @@ export class OffstateService implements OffstateApi {
   }
 
   async analyzeLot(lot: string): Promise<LotAnalysis> {
+    return (await this.analysis(lot)).value();
+  }
+
+  /** The analysis as the encoded envelope the browser mode sends (`{ ok: true, result }`). */
+  async analyzeLotEnvelope(lot: string): Promise<Uint8Array> {
+    return (await this.analysis(lot)).envelope;
+  }
+
+  private analysis(lot: string): Promise<EncodedAnalysis> {
     const cached = this.analysisCache.get(lot);
     if (cached && cached.version === this.dataVersion) return cached.result;
     const { dbPath, nativeBinding } = this.options;
     const thread = this.analysisThread;
-    const result = this.track<LotAnalysis>('analysis', 'wafers', thread
+    const result = this.track<EncodedAnalysis>('analysis', 'wafers', thread
       ? (report) => thread.analyze(dbPath, lot, report, nativeBinding)
-      : this.inThread((_signal, report) => analyzeStoredLot(this.db, lot, report)));
+      : this.inThread((_signal, report) => EncodedAnalysis.of(analyzeStoredLot(this.db, lot, report))));
     this.analysisCache.set(lot, { version: this.dataVersion, result });
     result.catch(() => this.analysisCache.delete(lot));
     return result;

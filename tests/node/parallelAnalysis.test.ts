@@ -9,6 +9,7 @@ import { existsSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
 import { AnalysisScratch } from '../../src/core/analysis';
+import { decodePayload } from '../../src/shared/codec';
 import { analyzeStoredLot, analyzeStoredLotInParallel } from '../../src/node/analysisStore';
 import { AnalysisWorker } from '../../src/node/analysisWorker';
 import { HelperPool } from '../../src/node/parallelAnalysis';
@@ -86,13 +87,13 @@ describe.skipIf(!existsSync(WORKER))('the analysis on several threads', () => {
       setTimeout(() => first.cancel(), 50);
       await expect(first.promise).rejects.toMatchObject({ name: 'CancelledError' });
       // The analysis queued behind it runs on a new thread.
-      expect(JSON.stringify(await queued.promise)).toBe(single);
+      expect(JSON.stringify((await queued.promise).value())).toBe(single);
       // A queued analysis cancelled before it starts is dropped; the running one goes on.
       const running = thread.analyze(dbPath, 'KX2417.1', () => {});
       const dropped = thread.analyze(dbPath, 'KX2417.1', () => {});
       dropped.cancel();
       await expect(dropped.promise).rejects.toMatchObject({ name: 'CancelledError' });
-      expect(JSON.stringify(await running.promise)).toBe(single);
+      expect(JSON.stringify((await running.promise).value())).toBe(single);
     } finally {
       thread.close();
     }
@@ -105,6 +106,8 @@ describe.skipIf(!existsSync(WORKER))('the analysis on several threads', () => {
     try {
       const result = await service.analyzeLot('KX2417.1');
       expect(JSON.stringify(result)).toBe(single);
+      // What the browser mode sends: the envelope encoded in the analysis thread, as it came.
+      expect(JSON.stringify(decodePayload<{ ok: boolean; result: unknown }>(await service.analyzeLotEnvelope('KX2417.1')))).toBe(JSON.stringify({ ok: true, result: JSON.parse(single) }));
       expect(events.some((e) => e.kind === 'analysis' && e.phase === 'done')).toBe(true);
     } finally {
       service.close();
