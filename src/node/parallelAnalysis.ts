@@ -146,10 +146,18 @@ export async function analyzeLotInParallel(frames: WaferFrame[], options: Parall
   const settings = resolveSettings(options.settings);
   const shared = { settings, history: options.history };
   const total = frames.length;
-  // Progress in wafers: each group's fraction weighted by its parameters; the joining is the last step.
+  // Progress in wafers. The groups run at once and take about as long (planParamGroups balances
+  // them), and a helper's reports only get through once this thread is free again; so this
+  // thread's fraction stands for all of them until it is done, then the slowest helper's. The
+  // joining is the last of (parameters + 1) steps. Never moves back.
   const fractions = groups.map(() => 0);
-  const weights = groups.map((g) => g.length / (groups.flat().length + 1));
-  const report = () => options.onProgress?.(Math.floor(total * fractions.reduce((s, f, i) => s + f * weights[i], 0)), total);
+  const share = groups.flat().length / (groups.flat().length + 1);
+  let shown = 0;
+  const report = () => {
+    const fraction = fractions[0] < 1 ? fractions[0] : Math.min(...fractions);
+    const done = Math.floor(total * share * fraction);
+    if (done > shown) { shown = done; options.onProgress?.(done, total); }
+  };
   const helpers = groups.slice(1).map((names, i) => pool!.run(withOnly(frames, names), names, shared, (f) => { fractions[i + 1] = f; report(); }));
   // A helper's failure is reported once all have settled, never as an unhandled rejection.
   const settled = Promise.allSettled(helpers);
