@@ -13,7 +13,7 @@ import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import {
   AnalysisScratch, analyzeLot, analyzeLotFromGroups, analyzeParamGroup, planParamGroups, resolveSettings,
-  type AnalyzeOptions, type LotAnalysis, type ParamGroupResult,
+  type AnalyzeOptions, type LotAnalysis, type ParamGroupResult, type PatReason, type Reason,
 } from '../core/analysis';
 import type { WaferFrame } from '../core/frame';
 import { generateLot } from '../core/generator';
@@ -28,7 +28,7 @@ export interface GroupRequest {
 
 export type GroupMessage =
   | { id: number; type: 'progress'; fraction: number }
-  | { id: number; type: 'result'; result: ParamGroupResult }
+  | { id: number; type: 'result'; result: PackedGroupResult }
   | { id: number; type: 'error'; name: string; message: string };
 
 /** workerData of a helper thread started from the worker script. */
@@ -48,6 +48,100 @@ function withOnly(frames: WaferFrame[], names: string[]): WaferFrame[] {
     params: f.params.filter((p) => names.includes(p.name)),
     values: Object.fromEntries(names.filter((n) => f.values[n]).map((n) => [n, f.values[n]])),
   }));
+}
+
+/**
+ * A group's result as it crosses threads: the flag reasons (tens of thousands of small objects on
+ * a full-size lot, slow to clone one by one) in columns, rebuilt on arrival with the same fields
+ * in the same order (so the joined analysis is byte for byte the single-thread one).
+ */
+export interface PackedGroupResult extends Omit<ParamGroupResult, 'wafers'> {
+  wafers: (Omit<ParamGroupResult['wafers'][number], 'reasons'> & { reasons: PackedReasons })[];
+}
+
+interface PackedReasons {
+  /** Die of each reason, a die's reasons one after another. */
+  die: Int32Array;
+  /** Index into METHODS and into `params`. */
+  method: Uint8Array;
+  param: Uint16Array;
+  params: string[];
+  /** value, score, limit, and low, high (PAT) or residual, NaN (NNR), five per reason. */
+  numbers: Float64Array;
+  /** bit 0: direction high; bit 1: scale log10; bit 2: clipped (PAT). */
+  bits: Uint8Array;
+  /** Neighbours (NNR). */
+  neighbours: Uint8Array;
+}
+
+const METHODS = ['pat-wafer', 'pat-lot', 'pat-static', 'nnr'] as const;
+
+export function packReasons(reasons: Map<number, Reason[]>): PackedReasons {
+  let n = 0;
+  for (const list of reasons.values()) n += list.length;
+  const out: PackedReasons = {
+    die: new Int32Array(n), method: new Uint8Array(n), param: new Uint16Array(n), params: [],
+    numbers: new Float64Array(5 * n), bits: new Uint8Array(n), neighbours: new Uint8Array(n),
+  };
+  const paramIndex = new Map<string, number>();
+  let k = 0;
+  for (const [die, list] of reasons) {
+    for (const r of list) {
+      const m = METHODS.indexOf(r.method as (typeof METHODS)[number]);
+      if (m < 0) throw new Error(`A parameter group cannot carry ${r.method} reasons.`);
+      let p = paramIndex.get(r.param);
+      if (p === undefined) { p = out.params.length; paramIndex.set(r.param, p); out.params.push(r.param); }
+      out.die[k] = die;
+      out.method[k] = m;
+      out.param[k] = p;
+      const at = 5 * k;
+      out.numbers[at] = r.value;
+      out.numbers[at + 1] = r.score;
+      out.numbers[at + 2] = r.limit;
+      if (r.method === 'nnr') {
+        out.numbers[at + 3] = r.residual;
+        out.numbers[at + 4] = NaN;
+        out.neighbours[k] = r.neighbours;
+      } else {
+        const pat = r as PatReason;
+        out.numbers[at + 3] = pat.low;
+        out.numbers[at + 4] = pat.high;
+        if (pat.clipped) out.bits[k] |= 4;
+      }
+      if (r.direction === 'high') out.bits[k] |= 1;
+      if (r.scale === 'log10') out.bits[k] |= 2;
+      k++;
+    }
+  }
+  return out;
+}
+
+export function unpackReasons(packed: PackedReasons): Map<number, Reason[]> {
+  const out = new Map<number, Reason[]>();
+  const { die, method, param, params, numbers, bits, neighbours } = packed;
+  for (let k = 0; k < die.length; k++) {
+    const at = 5 * k;
+    const common = {
+      param: params[param[k]], value: numbers[at], score: numbers[at + 1], limit: numbers[at + 2],
+      direction: bits[k] & 1 ? 'high' as const : 'low' as const, scale: bits[k] & 2 ? 'log10' as const : 'linear' as const,
+    };
+    const m = METHODS[method[k]];
+    // Fields in the order the methods write them (pat.ts flagOutside, neighbours.ts flagNnr).
+    const reason: Reason = m === 'nnr'
+      ? { method: m, ...common, residual: numbers[at + 3], neighbours: neighbours[k] }
+      : { method: m, ...common, low: numbers[at + 3], high: numbers[at + 4], clipped: (bits[k] & 4) !== 0 };
+    const list = out.get(die[k]);
+    if (list) list.push(reason); else out.set(die[k], [reason]);
+  }
+  return out;
+}
+
+function pack(result: ParamGroupResult): PackedGroupResult {
+  return { ...result, wafers: result.wafers.map((w) => ({ ...w, reasons: packReasons(w.reasons) })) };
+}
+
+function unpack(result: PackedGroupResult): ParamGroupResult {
+  return { ...result, wafers: result.wafers.map((w) => ({ ...w, reasons: unpackReasons(w.reasons) })) };
 }
 
 interface Helper { worker: Worker; busy: boolean }
@@ -94,7 +188,7 @@ export class HelperPool {
         if (m.id !== id) return;
         if (m.type === 'progress') { onFraction(m.fraction); return; }
         done();
-        if (m.type === 'result') resolve(m.result);
+        if (m.type === 'result') resolve(unpack(m.result));
         else reject(Object.assign(new Error(m.message), { name: m.name }));
       };
       const onError = (error: Error) => { done(); drop(); reject(error); };
@@ -196,7 +290,7 @@ export function serveGroupRequests(port: { on(event: 'message', listener: (m: Gr
     const post = (m: GroupMessage) => port.postMessage(m);
     try {
       const result = analyzeParamGroup(request.frames, request.names, { ...request.options, scratch: kept.take(), onProgress: (fraction) => post({ id: request.id, type: 'progress', fraction }) });
-      post({ id: request.id, type: 'result', result });
+      post({ id: request.id, type: 'result', result: pack(result) });
     } catch (error) {
       post({ id: request.id, type: 'error', name: (error as Error).name, message: (error as Error).message });
     } finally {

@@ -8,11 +8,11 @@ import { execFileSync } from 'node:child_process';
 import { existsSync, rmSync } from 'node:fs';
 import { join } from 'node:path';
 import { pathToFileURL } from 'node:url';
-import { AnalysisScratch } from '../../src/core/analysis';
+import { AnalysisScratch, type Reason } from '../../src/core/analysis';
 import { decodePayload } from '../../src/shared/codec';
 import { analyzeStoredLot, analyzeStoredLotInParallel } from '../../src/node/analysisStore';
 import { AnalysisWorker } from '../../src/node/analysisWorker';
-import { HelperPool } from '../../src/node/parallelAnalysis';
+import { HelperPool, packReasons, unpackReasons } from '../../src/node/parallelAnalysis';
 import { loadLot } from '../../src/node/store/repository';
 import { importDelimitedFile } from '../../src/node/importDelimited';
 import { OffstateService } from '../../src/node/service';
@@ -62,6 +62,23 @@ describe.skipIf(!existsSync(WORKER))('the analysis on several threads', () => {
       }
     } finally {
       db.close();
+    }
+  });
+
+  it('carries flag reasons between threads in columns and rebuilds them field for field', () => {
+    const reasons = new Map<number, Reason[]>([
+      [7, [
+        { method: 'pat-wafer', param: 'Ioff_n', value: -0, score: 6.5, limit: 6, direction: 'high', scale: 'log10', low: -11, high: -9.5, clipped: true },
+        { method: 'nnr', param: 'Ioff_n', value: 2e-9, score: -7.25, limit: 5, direction: 'low', scale: 'log10', residual: -0.8, neighbours: 8 },
+      ]],
+      [3, [{ method: 'pat-lot', param: 'Ion_p', value: 1e-4, score: NaN, limit: 6, direction: 'low', scale: 'linear', low: 1, high: 2, clipped: false }]],
+    ]);
+    const back = unpackReasons(structuredClone(packReasons(reasons)));
+    expect([...back.keys()]).toEqual([7, 3]);
+    for (const [die, list] of reasons) {
+      // toEqual compares numbers with Object.is: -0 and NaN must come back as they were.
+      expect(back.get(die)).toEqual(list);
+      back.get(die)!.forEach((r, i) => expect(Object.keys(r)).toEqual(Object.keys(list[i])));
     }
   });
 
