@@ -35,13 +35,18 @@ describe('offstate export', () => {
     const columns = header.split(',');
     const mech = columns.indexOf('mechanism');
     const cluster = columns.indexOf('cluster size');
+    const path = columns.indexOf('leakage path');
     const byDie = new Map(analysis.flagged.map((f: any) => [`${f.wafer}|${f.x}|${f.y}`, f]));
     for (const row of rows) {
       const f = row.split(',');
       const die: any = byDie.get(`${f[1]}|${f[2]}|${f[3]}`);
       expect(f[mech]).toBe(die.mechanism.kind);
       expect(f[cluster]).toBe(die.cluster ? String(die.cluster.size) : '');
+      expect(f[path]).toBe(die.mechanism.leakagePath ?? '');
     }
+    // The demo's pinhole-like random dies raised Ig with Ioff; its edge ring did not (sample-data/README.md).
+    expect(rows.some((r) => r.split(',')[path] === 'gate')).toBe(true);
+    expect(rows.some((r) => r.split(',')[path] === 'other')).toBe(true);
     writeFileSync(out, 'keep me');
     const refused = cli('export', 'KX2417.1', '--db', db, '--out', out);
     expect(refused.status).toBe(1);

@@ -12,6 +12,12 @@
 // variable estimate. Without Vt_sat it is the physics slope (Vdd - Vt)/(alpha S) (the inverse of
 // d ln Ion / d log10 Ioff = alpha S/(Vdd - Vt), DOMAIN.md), with alpha, S and Vdd from settings.
 //
+// The leakage path. Where the device's gate leakage Ig is measured, an extra-leakage call says
+// whether |Ig| rose with Ioff: in the off state, gate tunnelling at the gate-drain overlap flows
+// through both the drain and the gate, while junction band-to-band tunnelling, GIDL and most
+// defects raise the drain current alone (DOMAIN.md; the Ig split is common practice). "gate" when
+// log10|Ig| is at least GATE_LEAKAGE_SIGMAS robust sigmas above the wafer's, "other" otherwise.
+//
 // The call. Each coordinate (ln|Ion|, log10|Ioff|, and |Vt_sat| when measured) is scaled by the
 // wafer's robust sigma; the die's displacement is projected on each mechanism's direction
 // (threshold-shift either sign, extra-leakage only up, weak-drive only down), the misfit is the
@@ -33,7 +39,12 @@ export interface DeviceColumns {
   ioffValues: Float64Array;
   vtSat?: Float64Array;
   vtLin?: Float64Array;
+  /** Gate leakage of the device (Ig_n, Ig_p), when measured. */
+  ig?: Float64Array;
 }
+
+/** Robust sigmas of log10|Ig| above the wafer's that make an extra-leakage call a gate path. */
+export const GATE_LEAKAGE_SIGMAS = 3;
 
 export function deviceColumns(frame: Pick<WaferFrame, 'params' | 'values'>): DeviceColumns[] {
   const names = frame.params.map((p) => p.name);
@@ -42,14 +53,15 @@ export function deviceColumns(frame: Pick<WaferFrame, 'params' | 'values'>): Dev
     ionValues: frame.values[pair.ion], ioffValues: frame.values[pair.ioff],
     vtSat: names.includes(`Vtsat_${pair.device}`) ? frame.values[`Vtsat_${pair.device}`] : undefined,
     vtLin: names.includes(`Vtlin_${pair.device}`) ? frame.values[`Vtlin_${pair.device}`] : undefined,
+    ig: names.includes(`Ig_${pair.device}`) ? frame.values[`Ig_${pair.device}`] : undefined,
   }));
 }
 
-/** Points of the band fit: ln|Ion|, log10|Ioff|, |Vt_sat| (NaN when absent). */
-export interface BandSample { lnIon: number[]; logIoff: number[]; vt: number[]; dibl: number[]; swing: number[] }
+/** Points of the band fit: ln|Ion|, log10|Ioff|, |Vt_sat| and log10|Ig| (NaN when absent). */
+export interface BandSample { lnIon: number[]; logIoff: number[]; vt: number[]; dibl: number[]; swing: number[]; logIg: number[] }
 
 export function emptySample(): BandSample {
-  return { lnIon: [], logIoff: [], vt: [], dibl: [], swing: [] };
+  return { lnIon: [], logIoff: [], vt: [], dibl: [], swing: [], logIg: [] };
 }
 
 /** Adds up to `count` unflagged dies, evenly spread over the die order, to a band sample. */
@@ -69,6 +81,7 @@ export function addToSample(sample: BandSample, cols: DeviceColumns, flagged: Ui
     sample.vt.push(vt);
     sample.dibl.push(diblMvPerV(vtLin, vt, settings));
     sample.swing.push(impliedSwing(vt, ioff, icc, settings));
+    sample.logIg.push(cols.ig ? Math.log10(Math.abs(cols.ig[i])) : NaN);
   }
 }
 
@@ -138,6 +151,7 @@ export function buildBand(cols: DeviceColumns, sample: BandSample, settings: Mec
   const population = repeatedMedianLine(fit.lnIon, fit.logIoff);
   const dibl = finiteMedian(sample.dibl);
   const swing = finiteMedian(sample.swing);
+  const ig = robustOf(sample.logIg);
   return {
     device: cols.device, ion: cols.ion, ioff: cols.ioff, n: sample.lnIon.length,
     centreLnIon: ion.centre, centreLog10Ioff: ioff.centre, slope, slopeSource,
@@ -148,6 +162,7 @@ export function buildBand(cols: DeviceColumns, sample: BandSample, settings: Mec
     ...(ionPerVt !== undefined && ioffPerVt !== undefined ? { ionPerVt, ioffPerVt } : {}),
     ...(dibl !== undefined ? { diblMedian: dibl } : {}),
     ...(swing !== undefined ? { swingMedian: swing } : {}),
+    ...(ig && ig.sigma > 0 ? { centreLog10Ig: ig.centre, sigmaLog10Ig: ig.sigma } : {}),
   };
 }
 
@@ -200,6 +215,8 @@ function evidence(die: number, cols: DeviceColumns, band: TradeoffBand, settings
   const icc = cols.device === 'n' ? settings.iccN : settings.iccP;
   const dibl = diblMvPerV(vtLin, vt, settings);
   const swing = impliedSwing(vt, ioff, icc, settings);
+  const logIg = cols.ig ? Math.log10(Math.abs(cols.ig[die])) : NaN;
+  const igKnown = Number.isFinite(logIg) && band.centreLog10Ig !== undefined && band.sigmaLog10Ig !== undefined;
   return {
     device: cols.device,
     displacement: Math.hypot(...d),
@@ -216,6 +233,7 @@ function evidence(die: number, cols: DeviceColumns, band: TradeoffBand, settings
       ...(Number.isFinite(vt) && band.centreVt !== undefined ? { vtShiftMv: 1000 * (vt - band.centreVt) } : {}),
       ...(Number.isFinite(dibl) ? { diblMvPerV: dibl } : {}),
       ...(Number.isFinite(swing) ? { swingMvPerDecade: swing } : {}),
+      ...(igKnown ? { igDecades: logIg - band.centreLog10Ig!, igSigmas: (logIg - band.centreLog10Ig!) / band.sigmaLog10Ig! } : {}),
     },
   };
 }
@@ -248,6 +266,13 @@ export function classifyDie(die: number, devices: { cols: DeviceColumns; band: T
   }
   if (confidence < settings.minConfidence) {
     return { kind: 'unclassified', confidence: 0, ...base, misfit: top.misfit, why: `${who}: ${top.kind} and ${ranked[1].kind} fit about equally` };
+  }
+  if (top.kind === 'extra-leakage' && base.igSigmas !== undefined && base.igDecades !== undefined) {
+    const gate = base.igSigmas >= GATE_LEAKAGE_SIGMAS;
+    const path = gate
+      ? `; Ig up ${base.igDecades.toFixed(1)} decades with it: a gate path (oxide tunnelling or breakdown)`
+      : '; Ig normal: a junction, GIDL or defect path in the drain';
+    return { kind: top.kind, confidence, ...base, misfit: top.misfit, leakagePath: gate ? 'gate' : 'other', why: `${who}: ${WORDS[top.kind]}${path}` };
   }
   return { kind: top.kind, confidence, ...base, misfit: top.misfit, why: `${who}: ${WORDS[top.kind]}` };
 }

@@ -124,6 +124,9 @@ export interface TradeoffBand {
   /** Medians of DIBL (mV/V) and of the swing implied by Vt_sat and Ioff (mV/decade). */
   diblMedian?: number;
   swingMedian?: number;
+  /** Median and robust sigma of log10|Ig| (A) of those dies, when the device's Ig is measured. */
+  centreLog10Ig?: number;
+  sigmaLog10Ig?: number;
 }
 
 export type MechanismKind = 'threshold-shift' | 'extra-leakage' | 'weak-drive' | 'unclassified';
@@ -148,6 +151,12 @@ export interface MechanismCall {
   vtShiftMv?: number;
   diblMvPerV?: number;
   swingMvPerDecade?: number;
+  /** log10|Ig| - wafer median, in decades and in robust sigmas, when Ig is measured. */
+  igDecades?: number;
+  igSigmas?: number;
+  /** extra-leakage with Ig measured: "gate" when Ig rose with Ioff (at least 3 robust sigmas),
+   * else "other" (junction, GIDL or a defect in the drain). */
+  leakagePath?: 'gate' | 'other';
   /** Misfit of the chosen direction in population robust sigmas. */
   misfit?: number;
   /** Chuck temperature the lot was measured at, when known. */
