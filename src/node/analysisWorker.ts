@@ -3,8 +3,8 @@
 // (parallelAnalysis.ts), so neither the app's thread nor a fresh thread's compile time is in
 // the way. The result comes back encoded as the browser mode sends it (EncodedAnalysis), so the
 // app's thread neither decodes nor encodes 30 MB of objects per full-size lot unless it needs
-// them (exports, the desktop IPC). Cancelling the running analysis stops the thread (a synchronous step cannot be
-// interrupted); the next analysis starts a new one.
+// them (exports, the desktop IPC). Cancelling the running analysis stops the thread (a
+// synchronous step cannot be interrupted) and sends the analyses queued behind it to a new one.
 
 import { Worker } from 'node:worker_threads';
 import type { LotAnalysis } from '../shared/api';
@@ -23,7 +23,6 @@ export type AnalysisRequest =
   | { type: 'warm' };
 
 export type AnalysisReply =
-  | { id: number; type: 'started' }
   | { id: number; type: 'progress'; done: number; total: number }
   /** The result as the browser mode sends it: encodePayload({ ok: true, result }), transferred. */
   | { id: number; type: 'result'; envelope: Uint8Array }
@@ -79,7 +78,7 @@ export class AnalysisWorker {
       const p = this.pending.get(m.id);
       if (!p) return;
       if (m.type === 'progress') p.onProgress(m.done, m.total);
-      else if (m.type !== 'started') {
+      else {
         this.pending.delete(m.id);
         if (this.pending.size === 0) worker.unref();
         if (m.type === 'result') p.resolve(EncodedAnalysis.fromEnvelope(m.envelope));
@@ -160,7 +159,6 @@ export function serveAnalysisRequests(port: { on(event: 'message', listener: (m:
       // Let a 'drop' sent while the previous analysis ran arrive first.
       await new Promise((resolve) => setImmediate(resolve));
       if (dropped.delete(m.id)) return;
-      port.postMessage({ id: m.id, type: 'started' });
       const db = openDatabase(m.dbPath, { nativeBinding: m.nativeBinding });
       try {
         const result = await analyzeStoredLotInParallel(db, m.lot, { pool, scratch: kept.take(), onProgress: (done, total) => port.postMessage({ id: m.id, type: 'progress', done, total }) });
