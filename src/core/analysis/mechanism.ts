@@ -18,6 +18,11 @@
 // defects raise the drain current alone (DOMAIN.md; the Ig split is common practice). "gate" when
 // log10|Ig| is at least GATE_LEAKAGE_SIGMAS robust sigmas above the wafer's, "other" otherwise.
 //
+// Standby current. Where the die's standby supply current Isb is measured, every call carries its
+// change too, and an extra-leakage call says when the added leakage shows in it (at least
+// GATE_LEAKAGE_SIGMAS robust sigmas up): the defect then costs the product's standby current, not
+// only the test device's Ioff (common practice).
+//
 // The call. Each coordinate (ln|Ion|, log10|Ioff|, and |Vt_sat| when measured) is scaled by the
 // wafer's robust sigma; the die's displacement is projected on each mechanism's direction
 // (threshold-shift either sign, extra-leakage only up, weak-drive only down), the misfit is the
@@ -41,9 +46,12 @@ export interface DeviceColumns {
   vtLin?: Float64Array;
   /** Gate leakage of the device (Ig_n, Ig_p), when measured. */
   ig?: Float64Array;
+  /** Standby supply current of the die (Isb, one for both devices), when measured. */
+  isb?: Float64Array;
 }
 
-/** Robust sigmas of log10|Ig| above the wafer's that make an extra-leakage call a gate path. */
+/** Robust sigmas of log10|Ig| above the wafer's that make an extra-leakage call a gate path (and
+ * of log10|Isb| that make it show in the standby current). */
 export const GATE_LEAKAGE_SIGMAS = 3;
 
 export function deviceColumns(frame: Pick<WaferFrame, 'params' | 'values'>): DeviceColumns[] {
@@ -54,14 +62,15 @@ export function deviceColumns(frame: Pick<WaferFrame, 'params' | 'values'>): Dev
     vtSat: names.includes(`Vtsat_${pair.device}`) ? frame.values[`Vtsat_${pair.device}`] : undefined,
     vtLin: names.includes(`Vtlin_${pair.device}`) ? frame.values[`Vtlin_${pair.device}`] : undefined,
     ig: names.includes(`Ig_${pair.device}`) ? frame.values[`Ig_${pair.device}`] : undefined,
+    isb: names.includes('Isb') ? frame.values.Isb : undefined,
   }));
 }
 
-/** Points of the band fit: ln|Ion|, log10|Ioff|, |Vt_sat| and log10|Ig| (NaN when absent). */
-export interface BandSample { lnIon: number[]; logIoff: number[]; vt: number[]; dibl: number[]; swing: number[]; logIg: number[] }
+/** Points of the band fit: ln|Ion|, log10|Ioff|, |Vt_sat|, log10|Ig| and log10|Isb| (NaN when absent). */
+export interface BandSample { lnIon: number[]; logIoff: number[]; vt: number[]; dibl: number[]; swing: number[]; logIg: number[]; logIsb: number[] }
 
 export function emptySample(): BandSample {
-  return { lnIon: [], logIoff: [], vt: [], dibl: [], swing: [], logIg: [] };
+  return { lnIon: [], logIoff: [], vt: [], dibl: [], swing: [], logIg: [], logIsb: [] };
 }
 
 /** Adds up to `count` unflagged dies, evenly spread over the die order, to a band sample. */
@@ -82,6 +91,7 @@ export function addToSample(sample: BandSample, cols: DeviceColumns, flagged: Ui
     sample.dibl.push(diblMvPerV(vtLin, vt, settings));
     sample.swing.push(impliedSwing(vt, ioff, icc, settings));
     sample.logIg.push(cols.ig ? Math.log10(Math.abs(cols.ig[i])) : NaN);
+    sample.logIsb.push(cols.isb ? Math.log10(Math.abs(cols.isb[i])) : NaN);
   }
 }
 
@@ -152,6 +162,7 @@ export function buildBand(cols: DeviceColumns, sample: BandSample, settings: Mec
   const dibl = finiteMedian(sample.dibl);
   const swing = finiteMedian(sample.swing);
   const ig = robustOf(sample.logIg);
+  const isb = robustOf(sample.logIsb);
   return {
     device: cols.device, ion: cols.ion, ioff: cols.ioff, n: sample.lnIon.length,
     centreLnIon: ion.centre, centreLog10Ioff: ioff.centre, slope, slopeSource,
@@ -163,6 +174,7 @@ export function buildBand(cols: DeviceColumns, sample: BandSample, settings: Mec
     ...(dibl !== undefined ? { diblMedian: dibl } : {}),
     ...(swing !== undefined ? { swingMedian: swing } : {}),
     ...(ig && ig.sigma > 0 ? { centreLog10Ig: ig.centre, sigmaLog10Ig: ig.sigma } : {}),
+    ...(isb && isb.sigma > 0 ? { centreLog10Isb: isb.centre, sigmaLog10Isb: isb.sigma } : {}),
   };
 }
 
@@ -217,6 +229,8 @@ function evidence(die: number, cols: DeviceColumns, band: TradeoffBand, settings
   const swing = impliedSwing(vt, ioff, icc, settings);
   const logIg = cols.ig ? Math.log10(Math.abs(cols.ig[die])) : NaN;
   const igKnown = Number.isFinite(logIg) && band.centreLog10Ig !== undefined && band.sigmaLog10Ig !== undefined;
+  const logIsb = cols.isb ? Math.log10(Math.abs(cols.isb[die])) : NaN;
+  const isbKnown = Number.isFinite(logIsb) && band.centreLog10Isb !== undefined && band.sigmaLog10Isb !== undefined;
   return {
     device: cols.device,
     displacement: Math.hypot(...d),
@@ -234,6 +248,7 @@ function evidence(die: number, cols: DeviceColumns, band: TradeoffBand, settings
       ...(Number.isFinite(dibl) ? { diblMvPerV: dibl } : {}),
       ...(Number.isFinite(swing) ? { swingMvPerDecade: swing } : {}),
       ...(igKnown ? { igDecades: logIg - band.centreLog10Ig!, igSigmas: (logIg - band.centreLog10Ig!) / band.sigmaLog10Ig! } : {}),
+      ...(isbKnown ? { isbDecades: logIsb - band.centreLog10Isb!, isbSigmas: (logIsb - band.centreLog10Isb!) / band.sigmaLog10Isb! } : {}),
     },
   };
 }
@@ -267,12 +282,17 @@ export function classifyDie(die: number, devices: { cols: DeviceColumns; band: T
   if (confidence < settings.minConfidence) {
     return { kind: 'unclassified', confidence: 0, ...base, misfit: top.misfit, why: `${who}: ${top.kind} and ${ranked[1].kind} fit about equally` };
   }
-  if (top.kind === 'extra-leakage' && base.igSigmas !== undefined && base.igDecades !== undefined) {
-    const gate = base.igSigmas >= GATE_LEAKAGE_SIGMAS;
-    const path = gate
-      ? `; Ig up ${base.igDecades.toFixed(1)} decades with it: a gate path (oxide tunnelling or breakdown)`
-      : '; Ig normal: a junction, GIDL or defect path in the drain';
-    return { kind: top.kind, confidence, ...base, misfit: top.misfit, leakagePath: gate ? 'gate' : 'other', why: `${who}: ${WORDS[top.kind]}${path}` };
+  if (top.kind === 'extra-leakage') {
+    const gate = base.igSigmas !== undefined ? base.igSigmas >= GATE_LEAKAGE_SIGMAS : undefined;
+    const path = gate === undefined ? ''
+      : gate ? `; Ig up ${base.igDecades!.toFixed(1)} decades with it: a gate path (oxide tunnelling or breakdown)`
+        : '; Ig normal: a junction, GIDL or defect path in the drain';
+    const standby = base.isbSigmas !== undefined && base.isbSigmas >= GATE_LEAKAGE_SIGMAS
+      ? `; Isb up ${base.isbDecades!.toFixed(1)} decades: it shows in the die's standby current` : '';
+    return {
+      kind: top.kind, confidence, ...base, misfit: top.misfit, ...(gate === undefined ? {} : { leakagePath: gate ? 'gate' : 'other' }),
+      why: `${who}: ${WORDS[top.kind]}${path}${standby}`,
+    };
   }
   return { kind: top.kind, confidence, ...base, misfit: top.misfit, why: `${who}: ${WORDS[top.kind]}` };
 }

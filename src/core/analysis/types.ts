@@ -127,6 +127,9 @@ export interface TradeoffBand {
   /** Median and robust sigma of log10|Ig| (A) of those dies, when the device's Ig is measured. */
   centreLog10Ig?: number;
   sigmaLog10Ig?: number;
+  /** The same for log10|Isb| (A), the die's standby supply current, when measured. */
+  centreLog10Isb?: number;
+  sigmaLog10Isb?: number;
 }
 
 export type MechanismKind = 'threshold-shift' | 'extra-leakage' | 'weak-drive' | 'unclassified';
@@ -154,6 +157,9 @@ export interface MechanismCall {
   /** log10|Ig| - wafer median, in decades and in robust sigmas, when Ig is measured. */
   igDecades?: number;
   igSigmas?: number;
+  /** log10|Isb| - wafer median, in decades and in robust sigmas, when Isb is measured. */
+  isbDecades?: number;
+  isbSigmas?: number;
   /** extra-leakage with Ig measured: "gate" when Ig rose with Ioff (at least 3 robust sigmas),
    * else "other" (junction, GIDL or a defect in the drain). */
   leakagePath?: 'gate' | 'other';

@@ -107,7 +107,7 @@ describe('the engine on generated lots with planted excursions', () => {
 });
 
 describe('the leakage path of extra-leakage dies', () => {
-  it('says "gate" where the generator raised Ig with Ioff and "other" where it raised Ioff alone', () => {
+  it('says "gate" where the generator raised Ig with Ioff and "other" where it raised Ioff alone, and when Isb rose too', () => {
     // Oracle: the generator's truth (which excursions raised |Ig| too, `alsoIg`). Gate tunnelling at
     // the gate-drain overlap flows through the gate as well as the drain; junction, GIDL and
     // defect paths raise the drain current alone (DOMAIN.md "Other leakage paths"; the Ig split
@@ -117,7 +117,7 @@ describe('the leakage path of extra-leakage dies', () => {
       layout: { waferDiameterMm: 300, edgeExclusionMm: 3, dieWidthMm: 4, dieHeightMm: 4, sitesX: 2, sitesY: 2, shotX: 5, shotY: 4 },
       excursions: [
         { wafer: 0, mechanism: 'extra-leakage', device: 'n', magnitude: 1.5, spread: 0.2, alsoIg: true, shape: { kind: 'random', count: 30 } },
-        { wafer: 1, mechanism: 'extra-leakage', device: 'n', magnitude: 1.2, spread: 0.1, shape: { kind: 'edge-ring', innerFraction: 0.92 } },
+        { wafer: 1, mechanism: 'extra-leakage', device: 'n', magnitude: 1.2, spread: 0.1, alsoIsb: true, shape: { kind: 'edge-ring', innerFraction: 0.92 } },
         { wafer: 2, mechanism: 'extra-leakage', device: 'p', magnitude: 1.0, spread: 0.1, alsoIg: true, shape: { kind: 'loc', xMm: 40, yMm: 30, radiusMm: 25 } },
         { wafer: 3, mechanism: 'extra-leakage', device: 'p', magnitude: 1.0, spread: 0.1, shape: { kind: 'center', radiusFraction: 0.3 } },
       ],
@@ -132,12 +132,24 @@ describe('the leakage path of extra-leakage dies', () => {
       if (call?.kind === 'extra-leakage' && call.leakagePath === expected) tally[expected].right++;
     }
     console.log(`leakage path: gate ${tally.gate.right} of ${tally.gate.planted} planted with Ig, other ${tally.other.right} of ${tally.other.planted} planted without`);
+    // Standby current: up (3 robust sigmas or more) where the generator let the leakage reach Isb.
+    const standby = { with: { planted: 0, right: 0 }, without: { planted: 0, right: 0 } };
+    for (const p of lot.truth.planted) {
+      const call = flagged.get(`${p.wafer}|${p.die}`)?.mechanism;
+      const t = lot.truth.excursions[p.excursion].alsoIsb ? standby.with : standby.without;
+      t.planted++;
+      if (call?.isbSigmas !== undefined && (call.isbSigmas >= 3) === (t === standby.with)) t.right++;
+    }
+    console.log(`standby current: up on ${standby.with.right} of ${standby.with.planted} planted with Isb, not on ${standby.without.right} of ${standby.without.planted} planted without`);
+    expect(standby.with.planted).toBeGreaterThan(50);
+    expect(standby.with.right / standby.with.planted).toBeGreaterThanOrEqual(0.9);
+    expect(standby.without.right / standby.without.planted).toBeGreaterThanOrEqual(0.9);
     expect(tally.gate.planted).toBeGreaterThan(50);
     expect(tally.other.planted).toBeGreaterThan(50);
     expect(tally.gate.right / tally.gate.planted).toBeGreaterThanOrEqual(0.9);
     expect(tally.other.right / tally.other.planted).toBeGreaterThanOrEqual(0.9);
-    // Where Ig is not measured, no path is claimed.
-    const noIg = analyzeLot(lot.wafers.map((w) => ({ ...w, params: w.params.filter((q) => !q.name.startsWith('Ig_')) })));
-    expect(noIg.flagged.some((f) => f.mechanism.leakagePath !== undefined)).toBe(false);
+    // Where Ig and Isb are not measured, no path and no standby change is claimed.
+    const noIg = analyzeLot(lot.wafers.map((w) => ({ ...w, params: w.params.filter((q) => !q.name.startsWith('Ig_') && q.name !== 'Isb') })));
+    expect(noIg.flagged.some((f) => f.mechanism.leakagePath !== undefined || f.mechanism.isbSigmas !== undefined)).toBe(false);
   });
 });
