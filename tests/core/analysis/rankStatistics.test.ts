@@ -9,15 +9,7 @@ import { kruskalWallisFromSums, kthOfSorted, mannWhitneyFromRankSum } from '../.
 import { sortColumn } from '../../../src/core/analysis/sortedColumn';
 import { sortedSummary } from '../../../src/core/analysis/sortedSummary';
 import { scatterMidranks } from '../../../src/core/analysis/streams';
-
-function seeded(seed: number): () => number {
-  return () => {
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seeded } from '../../support/random';
 
 const random = seeded(2026);
 const relClose = (a: number, b: number, tol = 1e-9) => Math.abs(a - b) <= tol * Math.max(Math.abs(a), Math.abs(b), 1e-300);

@@ -1,15 +1,7 @@
 import * as ss from 'simple-statistics';
 import { describe, expect, it } from 'vitest';
 import { leastSquares, linearFit, mean, polynomialFit, standardDeviation } from '../../../src/core/stats';
-
-function seeded(seed: number): () => number {
-  return () => {
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seeded } from '../../support/random';
 
 /**
  * Oracle for well-conditioned problems: the normal equations XᵀX b = Xᵀy solved by Gaussian

@@ -1,16 +1,7 @@
 import * as ss from 'simple-statistics';
 import { describe, expect, it } from 'vitest';
 import { compensatedSum, mean } from '../../../src/core/stats';
-
-function seeded(seed: number): () => number {
-  // mulberry32: a small deterministic generator so random checks are reproducible.
-  return () => {
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seeded } from '../../support/random';
 
 describe('mean', () => {
   it('ignores NaN, ±Infinity, null and undefined', () => {

@@ -1,14 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { repeatedMedianLine, theilSenLine } from '../../../src/core/stats';
-
-function seeded(seed: number): () => number {
-  return () => {
-    seed = (seed + 0x6d2b79f5) | 0;
-    let t = Math.imul(seed ^ (seed >>> 15), 1 | seed);
-    t = (t + Math.imul(t ^ (t >>> 7), 61 | t)) ^ t;
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
+import { seeded } from '../../support/random';
 
 /** Oracle: the median as every textbook defines it, on a full sort. */
 function plainMedian(values: number[]): number {
