@@ -5,6 +5,7 @@
 // bad neighbourhood (GDBN: a passing die whose neighbours mostly fail, common practice).
 
 import { selectQuantilesInPlace } from '../stats';
+import { extentOf } from '../spatial/dieGrid';
 import type { Buffers } from './buffers';
 import { PAT_IQR_DIVISOR } from './robustScale';
 import type { GdbnReason, NnrReason } from './types';
@@ -23,13 +24,8 @@ export interface Neighbourhood {
 export function neighbourhood(x: Int32Array, y: Int32Array, radius: number): Neighbourhood {
   const n = x.length;
   const r = Math.max(1, Math.floor(radius));
-  let minX = Infinity, maxX = -Infinity, minY = Infinity, maxY = -Infinity;
-  for (let i = 0; i < n; i++) {
-    if (x[i] < minX) minX = x[i];
-    if (x[i] > maxX) maxX = x[i];
-    if (y[i] < minY) minY = y[i];
-    if (y[i] > maxY) maxY = y[i];
-  }
+  const { min: minX, max: maxX } = extentOf(x);
+  const { min: minY, max: maxY } = extentOf(y);
   const start = new Int32Array(n + 1);
   if (n === 0) return { start, list: new Int32Array(0) };
   const width = maxX - minX + 1;

@@ -1,6 +1,8 @@
 // The die grid of one wafer: the bounding box of die coordinates and an index from grid cell to
 // die, so the die under the mouse is found in O(1) whatever the die count.
 
+import { extentOf } from '../../core/spatial/dieGrid';
+
 export interface DieGrid {
   minX: number;
   maxX: number;
@@ -25,13 +27,8 @@ export const MAX_GRID_CELLS = 16_000_000;
 
 export function buildDieGrid(x: Int32Array, y: Int32Array): DieGrid {
   const n = x.length;
-  let minX = Infinity, maxX = -Infinity, minY = Infinity, maxY = -Infinity;
-  for (let i = 0; i < n; i++) {
-    if (x[i] < minX) minX = x[i];
-    if (x[i] > maxX) maxX = x[i];
-    if (y[i] < minY) minY = y[i];
-    if (y[i] > maxY) maxY = y[i];
-  }
+  const { min: minX, max: maxX } = extentOf(x);
+  const { min: minY, max: maxY } = extentOf(y);
   if (n === 0) {
     return { minX: 0, maxX: -1, minY: 0, maxY: -1, columns: 0, rows: 0, cellToDie: new Int32Array(0),
       occupiedCells: 0, centreX: 0, centreY: 0, radius: 1 };

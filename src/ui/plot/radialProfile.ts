@@ -3,6 +3,7 @@
 // core/stats) of each ring, on the map's colour scale (log10 |I| for currents).
 
 import { quantileSorted } from '../../core/stats';
+import { extentOf } from '../../core/spatial/dieGrid';
 import { transformValue } from '../map/colorScale';
 
 export interface RadialBin {
@@ -17,13 +18,8 @@ export interface RadialBin {
 export function radialProfile(x: Int32Array, y: Int32Array, values: Float64Array, log: boolean, bins = 10): RadialBin[] {
   const n = x.length;
   if (!n) return [];
-  let minX = Infinity, maxX = -Infinity, minY = Infinity, maxY = -Infinity;
-  for (let i = 0; i < n; i++) {
-    if (x[i] < minX) minX = x[i];
-    if (x[i] > maxX) maxX = x[i];
-    if (y[i] < minY) minY = y[i];
-    if (y[i] > maxY) maxY = y[i];
-  }
+  const { min: minX, max: maxX } = extentOf(x);
+  const { min: minY, max: maxY } = extentOf(y);
   const cx = (minX + maxX) / 2, cy = (minY + maxY) / 2;
   const radius = new Float64Array(n);
   let rMax = 0;
