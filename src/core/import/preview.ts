@@ -2,16 +2,11 @@
 // scale and sample values per column), plus the mapping that reproduces it, for the user to correct.
 
 import type { Delimiter, LineRecord } from './delimited';
-import { looksLikeHeader, measurementOf, type ColumnRole, type Layout } from './headers';
+import { looksLikeHeader, measurementOf, type ColumnPlan, type Layout } from './headers';
 import { mappingFits, planWithMapping, type ColumnMapping } from './mapping';
 
-export interface ColumnPreview {
-  index: number;
-  header: string;
-  role: ColumnRole;
-  name?: string;
-  unit?: string;
-  scale?: number;
+/** A column as planned (role, name, unit, scale), with what it holds. */
+export interface ColumnPreview extends ColumnPlan {
   /** The first few values of the column as written. */
   samples: string[];
 }
