@@ -20,6 +20,18 @@ export function radialDensity(mask: Uint8Array, placement: DiePositions): number
   return Array.from(dies, (d, k) => (d > 0 ? hits[k] / d : 0));
 }
 
+/** Share of the sectors holding dies whose marked share is at least SECTOR_COVERED (0 with none). */
+function coveredShare(dies: Float64Array, hits: Float64Array): number {
+  let used = 0;
+  let covered = 0;
+  for (let k = 0; k < dies.length; k++) {
+    if (dies[k] === 0) continue;
+    used++;
+    if (hits[k] / dies[k] >= SECTOR_COVERED) covered++;
+  }
+  return used > 0 ? covered / used : 0;
+}
+
 export interface AngularFeatures { coverage: number; sectors: number; concentration: number }
 
 /** In the radial band [low, high]: the share of angular sectors at least 30 % marked, and how concentrated the marked dies' angles are. */
@@ -30,14 +42,7 @@ export function angularFeatures(signal: Uint8Array, placement: DiePositions, low
   const dies = new Float64Array(sectors);
   const hits = new Float64Array(sectors);
   countBySector(signal, placement, low, high, dies, hits);
-  let used = 0;
-  let covered = 0;
-  for (let k = 0; k < sectors; k++) {
-    if (dies[k] === 0) continue;
-    used++;
-    if (hits[k] / dies[k] >= SECTOR_COVERED) covered++;
-  }
-  return { coverage: used > 0 ? covered / used : 0, sectors, concentration: meanResultantLength(signal, placement.angleDeg) };
+  return { coverage: coveredShare(dies, hits), sectors, concentration: meanResultantLength(signal, placement.angleDeg) };
 }
 
 function countInBand(radiusFraction: Float64Array, low: number, high: number): number {
@@ -103,18 +108,11 @@ export function edgeFlags(mask: Uint8Array, placement: DiePositions): { rate: nu
     dies[k]++;
     if (mask[i]) { hits[k]++; edgeHits++; }
   }
-  let used = 0;
-  let covered = 0;
-  for (let k = 0; k < sectors; k++) {
-    if (dies[k] === 0) continue;
-    used++;
-    if (hits[k] / dies[k] >= SECTOR_COVERED) covered++;
-  }
   const interiorDies = mask.length - edgeDies;
   return {
     rate: edgeDies > 0 ? edgeHits / edgeDies : 0,
     interiorRate: interiorDies > 0 ? interiorHits / interiorDies : 0,
-    coverage: used > 0 ? covered / used : 0,
+    coverage: coveredShare(dies, hits),
   };
 }
 
