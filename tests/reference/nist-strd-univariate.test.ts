@@ -1,18 +1,12 @@
 // NIST StRD univariate summary statistics: certified mean and sample standard deviation.
-import { existsSync, readFileSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { afterAll, describe, expect, it } from 'vitest';
 import { mean, standardDeviation } from '../../src/core/stats';
+import { HAS_REFERENCE, REFERENCE_DIR } from '../support/paths';
 
-function findProjectRoot(): string {
-  let dir = path.dirname(fileURLToPath(import.meta.url));
-  while (!existsSync(path.join(dir, 'package.json')) && path.dirname(dir) !== dir) dir = path.dirname(dir);
-  return dir;
-}
-
-const referenceDir = path.resolve(findProjectRoot(), '../shared/reference');
-const available = existsSync(referenceDir);
+const referenceDir = REFERENCE_DIR;
+const available = HAS_REFERENCE;
 if (!available) console.warn(`NIST StRD tests skipped: reference folder ${referenceDir} not found.`);
 
 const DATASETS = ['NumAcc1', 'NumAcc2', 'NumAcc3', 'NumAcc4', 'Lew', 'Lottery', 'Mavro', 'Michelso', 'PiDigits'];
