@@ -1,20 +1,12 @@
-import { afterEach, describe, expect, it } from 'vitest';
-import { rmSync, writeFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
 import { join } from 'node:path';
 import { openDatabase } from '../../src/node/store/database';
 import { listLots, loadWafer } from '../../src/node/store/repository';
 import { importDelimitedFile, ImportError, CancelledError } from '../../src/node/importDelimited';
-import { scratchDir } from '../support/paths';
+import { scratchSpace } from '../support/scratch';
 
-const dirs: string[] = [];
-const tmp = () => { const d = scratchDir(); dirs.push(d); return d; };
-afterEach(() => { for (const d of dirs.splice(0)) rmSync(d, { recursive: true, force: true }); });
+const { write } = scratchSpace();
 
-function write(name: string, text: string): string {
-  const path = join(tmp(), name);
-  writeFileSync(path, text);
-  return path;
-}
 
 const SAMPLE = [
   'Lot,Wafer,X,Y,Site,Ioff_n [A],Ion_n (uA),IOFF_P (pA)',

@@ -1,22 +1,14 @@
-import { afterEach, describe, expect, it } from 'vitest';
-import { rmSync, writeFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
 import { join } from 'node:path';
 import { openDatabase, type Db } from '../../src/node/store/database';
 import { listLots, loadLot, loadWafer } from '../../src/node/store/repository';
 import { importDelimitedFile } from '../../src/node/importDelimited';
 import { importAnyFile, previewFile } from '../../src/node/importAny';
 import { listMappings, saveMapping } from '../../src/node/importMappings';
-import { scratchDir } from '../support/paths';
+import { scratchSpace } from '../support/scratch';
 
-const dirs: string[] = [];
-const tmp = () => { const d = scratchDir(); dirs.push(d); return d; };
-afterEach(() => { for (const d of dirs.splice(0)) rmSync(d, { recursive: true, force: true }); });
+const { write } = scratchSpace();
 
-function write(name: string, text: string): string {
-  const path = join(tmp(), name);
-  writeFileSync(path, text);
-  return path;
-}
 const count = (db: Db, table: string) => (db.prepare(`SELECT count(*) AS n FROM ${table}`).get() as { n: number }).n;
 
 describe('messy delimited files', () => {

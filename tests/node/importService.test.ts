@@ -1,15 +1,13 @@
-import { afterEach, describe, expect, it } from 'vitest';
-import { rmSync, writeFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
+import { writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { OffstateService } from '../../src/node/service';
 import { validateArgs } from '../../src/shared/validate';
 import type { ProgressEvent } from '../../src/shared/api';
-import { scratchDir } from '../support/paths';
+import { scratchSpace } from '../support/scratch';
 import { inventedWafer, writeStdfLot } from '../support/stdfLot';
 
-const dirs: string[] = [];
-const tmp = () => { const d = scratchDir(); dirs.push(d); return d; };
-afterEach(() => { for (const d of dirs.splice(0)) rmSync(d, { recursive: true, force: true }); });
+const { tmp } = scratchSpace();
 
 describe('the service import API', () => {
   it('previews, saves a mapping by name and imports with it, reporting progress with rate and time left', async () => {

@@ -1,5 +1,4 @@
-import { afterEach, describe, expect, it } from 'vitest';
-import { rmSync, writeFileSync } from 'node:fs';
+import { describe, expect, it } from 'vitest';
 import { join } from 'node:path';
 import { interquartileRange, mean, median, quantile, sampleStandardDeviation } from 'simple-statistics';
 import { openDatabase, type Db } from '../../src/node/store/database';
@@ -7,18 +6,11 @@ import { listLots, loadLot } from '../../src/node/store/repository';
 import { importAnyFile } from '../../src/node/importAny';
 import { importDelimitedFile, ImportError } from '../../src/node/importDelimited';
 import { loadWaferBins, loadWaferGeometry } from '../../src/node/importStore';
-import { scratchDir } from '../support/paths';
+import { scratchSpace } from '../support/scratch';
 import { inventedWafer, writeCsvLot, writeStdfLot } from '../support/stdfLot';
 
-const dirs: string[] = [];
-const tmp = () => { const d = scratchDir(); dirs.push(d); return d; };
-afterEach(() => { for (const d of dirs.splice(0)) rmSync(d, { recursive: true, force: true }); });
+const { write } = scratchSpace();
 
-function write(name: string, data: string | Uint8Array): string {
-  const path = join(tmp(), name);
-  writeFileSync(path, data);
-  return path;
-}
 
 const count = (db: Db, table: string) => (db.prepare(`SELECT count(*) AS n FROM ${table}`).get() as { n: number }).n;
 

@@ -1,16 +1,14 @@
-import { afterEach, describe, expect, it } from 'vitest';
+import { describe, expect, it } from 'vitest';
 import Database from 'better-sqlite3';
-import { readFileSync, rmSync, writeFileSync } from 'node:fs';
+import { readFileSync, writeFileSync } from 'node:fs';
 import { join } from 'node:path';
 import { APPLICATION_ID, openDatabase, StoreError } from '../../src/node/store/database';
 import { SCHEMA_VERSION } from '../../src/node/store/migrations';
 import { listLots, loadWafer, naturalCompare, storeImport } from '../../src/node/store/repository';
-import { scratchDir } from '../support/paths';
+import { scratchSpace } from '../support/scratch';
 import type { WaferFrame } from '../../src/core/frame';
 
-const dirs: string[] = [];
-const tmp = () => { const d = scratchDir(); dirs.push(d); return d; };
-afterEach(() => { for (const d of dirs.splice(0)) rmSync(d, { recursive: true, force: true }); });
+const { tmp } = scratchSpace();
 
 function frame(lot: string, wafer: string, n: number): WaferFrame {
   const x = new Int32Array(n).map((_, i) => i % 10);
