@@ -3,24 +3,18 @@
 // "remove, then add again" puts a die back. Pure functions: the views, the exports and the report
 // all read the same rows.
 
-import type { FlaggedDie, MechanismKind, Reason } from '../../core/analysis/types';
+import type { FlaggedDie, MechanismKind } from '../../core/analysis/types';
 import type { FaEdit } from '../../shared/api';
 import { describeReasons } from '../flagText';
 
-export interface FaRow {
-  lot: string;
-  wafer: string;
-  x: number;
-  y: number;
-  site: number;
-  index: number;
+/** A die of the FA list: where it is, its reasons and values (as a flagged die has them), and
+ * how it got onto the list. */
+export interface FaRow extends Pick<FlaggedDie, 'lot' | 'wafer' | 'x' | 'y' | 'site' | 'index' | 'reasons' | 'values'> {
   /** 'analysis': flagged by the analysis; 'manual': added by hand. */
   source: 'analysis' | 'manual';
-  reasons: Reason[];
   /** Mechanism call when the analysis made one. */
   mechanism: MechanismKind | null;
   mechanismWhy: string;
-  values: Record<string, number | null>;
   /** The note of the last hand edit of this die ('' when none). */
   note: string;
   /** The 8-neighbour cluster of flagged dies the die is in, when the analysis found one. */
