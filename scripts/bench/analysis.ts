@@ -17,12 +17,12 @@ import { AnalysisWorker } from '../../src/node/analysisWorker';
 import { analysisThreads, HelperPool } from '../../src/node/parallelAnalysis';
 import { projectRoot } from '../../src/node/paths';
 import { AnalysisScratch, analyzeLot } from '../../src/core/analysis';
-import type { WaferFrame } from '../../src/core/frame';
+import { withParams, type WaferFrame } from '../../src/core/frame';
 
 const CURRENTS = ['Ioff_n', 'Ion_n', 'Ioff_p', 'Ion_p'];
 
 function only(frames: WaferFrame[], names: string[]): WaferFrame[] {
-  return frames.map((f) => ({ ...f, params: f.params.filter((p) => names.includes(p.name)), values: Object.fromEntries(names.map((n) => [n, f.values[n]])) }));
+  return frames.map((f) => withParams(f, names));
 }
 
 function timeBest(run: () => void, times = 2): { wall: number; cpu: number } {

@@ -29,3 +29,12 @@ export interface WaferFrame {
 export function dieCount(frame: WaferFrame): number {
   return frame.x.length;
 }
+
+/** The frame with only the named parameters (in its own order; names it lacks are left out). */
+export function withParams(frame: WaferFrame, names: readonly string[]): WaferFrame {
+  return {
+    lot: frame.lot, wafer: frame.wafer, x: frame.x, y: frame.y, site: frame.site,
+    params: frame.params.filter((p) => names.includes(p.name)),
+    values: Object.fromEntries(names.filter((n) => frame.values[n]).map((n) => [n, frame.values[n]])),
+  };
+}

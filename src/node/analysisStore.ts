@@ -94,9 +94,13 @@ export function readHistory(db: Db, lot: string): AnalysisHistory {
   return { lots: earlier.length, references };
 }
 
+/** What the store gives an analysis of `lot` besides its frames: settings, history, geometry. */
+function storedOptions(db: Db, lot: string) {
+  return { settings: readAnalysisSettings(db), history: readHistory(db, lot), geometry: waferGeometryOf(db) };
+}
+
 export function analyzeStoredLot(db: Db, lot: string, onProgress?: (done: number, total: number) => void): LotAnalysis {
-  const frames = loadLot(db, lot);
-  return analyzeLot(frames, { settings: readAnalysisSettings(db), history: readHistory(db, lot), onProgress, geometry: waferGeometryOf(db) });
+  return analyzeLot(loadLot(db, lot), { ...storedOptions(db, lot), onProgress });
 }
 
 /** The same analysis on several cores when a helper pool is given (parallelAnalysis.ts). */
@@ -105,5 +109,5 @@ export function analyzeStoredLotInParallel(
 ): Promise<LotAnalysis> {
   // Shared memory: the helpers read the columns where they are.
   const frames = loadLot(db, lot, { shared: options.pool !== undefined });
-  return analyzeLotInParallel(frames, { ...options, settings: readAnalysisSettings(db), history: readHistory(db, lot), geometry: waferGeometryOf(db) });
+  return analyzeLotInParallel(frames, { ...options, ...storedOptions(db, lot) });
 }

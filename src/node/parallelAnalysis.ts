@@ -15,7 +15,7 @@ import {
   AnalysisScratch, analyzeLot, analyzeLotFromGroups, analyzeParamGroup, planParamGroups, resolveSettings,
   type AnalyzeOptions, type LotAnalysis, type ParamGroupResult, type PatReason, type Reason,
 } from '../core/analysis';
-import type { WaferFrame } from '../core/frame';
+import { withParams, type WaferFrame } from '../core/frame';
 import { generateLot } from '../core/generator';
 
 /** What a helper is asked: analyse one parameter group of one lot's frames (only its columns). */
@@ -40,14 +40,6 @@ export function analysisThreads(): number {
   const given = Number(process.env.OFFSTATE_ANALYSIS_THREADS);
   if (Number.isInteger(given) && given >= 1) return given;
   return Math.max(1, Math.min(availableParallelism(), 4));
-}
-
-function withOnly(frames: WaferFrame[], names: string[]): WaferFrame[] {
-  return frames.map((f) => ({
-    lot: f.lot, wafer: f.wafer, x: f.x, y: f.y, site: f.site,
-    params: f.params.filter((p) => names.includes(p.name)),
-    values: Object.fromEntries(names.filter((n) => f.values[n]).map((n) => [n, f.values[n]])),
-  }));
 }
 
 /**
@@ -252,7 +244,7 @@ export async function analyzeLotInParallel(frames: WaferFrame[], options: Parall
     const done = Math.floor(total * share * fraction);
     if (done > shown) { shown = done; options.onProgress?.(done, total); }
   };
-  const helpers = groups.slice(1).map((names, i) => pool!.run(withOnly(frames, names), names, shared, (f) => { fractions[i + 1] = f; report(); }));
+  const helpers = groups.slice(1).map((names, i) => pool!.run(frames.map((f) => withParams(f, names)), names, shared, (f) => { fractions[i + 1] = f; report(); }));
   // A helper's failure is reported once all have settled, never as an unhandled rejection.
   const settled = Promise.allSettled(helpers);
   const own = analyzeParamGroup(frames, groups[0], { ...shared, scratch: options.scratch, onProgress: (f) => { fractions[0] = f; report(); } });

@@ -153,11 +153,8 @@ interface WaferWork extends WaferPart {
 /** Slots of a sorted column's entries, from the wafer's site table (built once per wafer). */
 function slotsOf(wk: WaferWork, col: SortedColumn, buffers: Buffers): { sites: number[]; slot: Int32Array } {
   if (!wk.siteTable) {
-    const { sites, slot } = siteSlots(wk.frame.site);
-    const max = sites.length ? sites[sites.length - 1] : -1;
-    // Ordinary site numbers: a dense site -> slot table, read along the column's own site labels.
-    const slotOfSite = max <= 1 << 16 ? new Int32Array(max + 1).fill(-1) : undefined;
-    if (slotOfSite) sites.forEach((site, i) => { slotOfSite[site] = i; });
+    // With ordinary site numbers, the dense site -> slot table is read along the column's own site labels.
+    const { sites, slot, slotOfSite } = siteSlots(wk.frame.site);
     wk.siteTable = { sites, slotOfDie: slot, slotOfSite };
   }
   const { sites, slotOfDie, slotOfSite } = wk.siteTable;

@@ -13,8 +13,10 @@ import { chiSquareSurvival, normalSurvival } from '../stats';
 import { sortColumn } from './sortedColumn';
 import type { AnalysisSettings, SiteBias } from './types';
 
-/** Sites present in a stream's labels (>= 0), ascending, and each entry's slot in that list. */
-export function siteSlots(site: Int32Array, into?: Int32Array): { sites: number[]; slot: Int32Array } {
+/** Sites present in a stream's labels (>= 0) ascending, each entry's index among them (-1 for an
+ * unknown site) and, for ordinary site numbers, the dense table site -> index behind it (-1 for a
+ * site not present). */
+export function siteSlots(site: Int32Array, into?: Int32Array): { sites: number[]; slot: Int32Array; slotOfSite?: Int32Array } {
   let max = -1;
   for (let k = 0; k < site.length; k++) if (site[k] > max) max = site[k];
   const slot = into && into.length >= site.length ? into.subarray(0, site.length) : new Int32Array(site.length);
@@ -31,7 +33,7 @@ export function siteSlots(site: Int32Array, into?: Int32Array): { sites: number[
   const sites: number[] = [];
   for (let s = 0; s <= max; s++) if (table[s] === 0) { table[s] = sites.length; sites.push(s); }
   for (let k = 0; k < site.length; k++) slot[k] = site[k] >= 0 ? table[site[k]] : -1;
-  return { sites, slot };
+  return { sites, slot, slotOfSite: table };
 }
 
 interface RankSums { sums: Float64Array; counts: Int32Array; total: number; tieTerm: number }

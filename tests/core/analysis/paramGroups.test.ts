@@ -7,7 +7,7 @@ import { describe, expect, it } from 'vitest';
 import {
   AnalysisScratch, analyzeLot, analyzeLotFromGroups, analyzeParamGroup, analysisOrder, planParamGroups, type ParamGroupResult,
 } from '../../../src/core/analysis';
-import type { WaferFrame } from '../../../src/core/frame';
+import { withParams, type WaferFrame } from '../../../src/core/frame';
 import { generateLot } from '../../../src/core/generator';
 
 const lot = generateLot({
@@ -22,7 +22,7 @@ const lot = generateLot({
 
 /** The frames with only the named parameters (what a worker loads for its group). */
 function only(frames: WaferFrame[], names: string[]): WaferFrame[] {
-  return frames.map((f) => ({ ...f, params: f.params.filter((p) => names.includes(p.name)), values: Object.fromEntries(names.map((n) => [n, f.values[n]])) }));
+  return frames.map((f) => withParams(f, names));
 }
 
 /** As a worker would: each group from frames holding only its parameters, posted (cloned) back. */
